@@ -4,6 +4,7 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 
 export interface NistCase {
   name: string;
@@ -12,7 +13,7 @@ export interface NistCase {
   certified: { estimates: number[]; stdDevs: number[]; residualSd: number; rSquared: number };
 }
 
-export const NIST_DIR = path.join(__dirname, '..', 'fixtures', 'nist-strd');
+export const NIST_DIR = path.join(path.dirname(fileURLToPath(import.meta.url)), '..', 'fixtures', 'nist-strd');
 
 export function readNist(name: string): NistCase {
   const lines = readFileSync(path.join(NIST_DIR, `${name}.dat`), 'utf8').split('\n');
@@ -35,7 +36,7 @@ export function readNist(name: string): NistCase {
       estimates.push(Number(param[1]));
       stdDevs.push(Number(param[2]));
     }
-    const sd = /^Residual Standard Deviation\s+(\S+)/.exec(l);
+    const sd = /^Standard Deviation\s+(\S+)/.exec(l);
     if (sd) residualSd = Number(sd[1]);
     const r2 = /^R-Squared\s+(\S+)/.exec(l);
     if (r2) rSquared = Number(r2[1]);
