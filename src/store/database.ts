@@ -1,0 +1,41 @@
+/**
+ * Opens the database named by a libSQL URL: an embedded file (`file:data/compfit.db`),
+ * `:memory:` for tests, or a libSQL server (`libsql://…`, `http://…`) with the same code.
+ * Embedded files get WAL journaling (readers do not block the writer) and a busy timeout
+ * so the web app and the command line can use one file at the same time.
+ */
+import { createClient, type Client } from '@libsql/client';
+import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
+import * as schema from './schema.js';
+
+export type Database = LibSQLDatabase<typeof schema> & { $client: Client };
+
+export interface DatabaseOptions {
+  url: string;
+  authToken?: string;
+  /** Milliseconds a writer waits for a lock held by another connection (embedded files). */
+  busyTimeoutMs?: number;
+}
+
+export const DEFAULT_BUSY_TIMEOUT_MS = 5000;
+
+export function isEmbeddedFileUrl(url: string): boolean {
+  return url.startsWith('file:');
+}
+
+export async function openDatabase(options: DatabaseOptions): Promise<Database> {
+  const embedded = isEmbeddedFileUrl(options.url);
+  const client = createClient({
+    url: options.url,
+    ...(options.authToken ? { authToken: options.authToken } : {}),
+    // The client keeps a pool of connections to a file; `timeout` is set on each of them.
+    ...(embedded ? { timeout: options.busyTimeoutMs ?? DEFAULT_BUSY_TIMEOUT_MS } : {}),
+  });
+  // WAL is a property of the file, so setting it once covers every connection.
+  if (embedded) await client.execute('PRAGMA journal_mode = WAL');
+  return drizzle(client, { schema }) as Database;
+}
+
+export function closeDatabase(db: Database): void {
+  db.$client.close();
+}
