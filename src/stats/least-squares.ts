@@ -23,6 +23,11 @@ export interface LeastSquaresFit {
   interceptColumn: number;
   /** x₀ᵀ(XᵀX)⁻¹x₀ for a new row x₀ (same columns as the design). */
   leverageOf(x0: readonly number[]): number;
+  /**
+   * Regression sum of squares of another response v on the same design, ‖Q₁ᵀ(v − v̄)‖²
+   * (v − v̄ when there is an intercept), from the stored QR factor: O(n·p), no refit.
+   */
+  explainedSumOfSquares(v: ArrayLike<number>): number;
 }
 
 export interface LeastSquaresOptions {
@@ -176,6 +181,20 @@ export function leastSquaresColumns(
     unscaledCovariance,
     scaledConditionNumber: conditionNumber,
     interceptColumn: transform.intercept,
+    explainedSumOfSquares: (values) => {
+      if (values.length !== n) throw new RangeError(`explainedSumOfSquares: need ${n} values, got ${values.length}`);
+      const u = Float64Array.from(values);
+      if (transform.intercept >= 0) {
+        let mean = 0;
+        for (let i = 0; i < n; i++) mean += u[i];
+        mean /= n;
+        for (let i = 0; i < n; i++) u[i] -= mean;
+      }
+      qr.applyQt(u);
+      let ss = 0;
+      for (let j = 0; j < p; j++) ss += u[j] * u[j];
+      return ss;
+    },
     leverageOf: (x0) => {
       if (x0.length !== p) throw new RangeError(`leverageOf: need ${p} values, got ${x0.length}`);
       transform.toScaledRow(x0, v);

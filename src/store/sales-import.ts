@@ -25,6 +25,8 @@ export interface ImportOptions {
   fileName: string;
   /** A previewed batch to mark as committed; without one a new batch is recorded. */
   batchId?: number;
+  /** Delete the market's sales, their history and earlier imports first, in the same transaction. */
+  replace?: boolean;
 }
 
 const SALE_COLUMNS = [
@@ -84,6 +86,11 @@ export async function findTakenRefs(db: Database, marketId: number, incoming: re
 export async function importSales(db: Database, marketId: number, incoming: readonly Sale[], options: ImportOptions): Promise<ImportResult> {
   const tx = await db.$client.transaction('write');
   try {
+    if (options.replace) {
+      for (const table of ['sale_changes', 'sales'])
+        await tx.execute({ sql: `delete from "${table}" where "market_id" = ?`, args: [marketId] });
+      await tx.execute({ sql: `delete from "import_batches" where "market_id" = ? and "id" is not ?`, args: [marketId, options.batchId ?? null] });
+    }
     const existing = await refsOf(tx, marketId);
     const taken = takenRefErrors(existing, incoming);
     if (taken.length > 0) return { ok: false, errors: taken };

@@ -1,0 +1,174 @@
+/**
+ * Every warning of DESIGN.md "Warning codes", read off a finished result. Thresholds and
+ * their sources (reference/TRADE-FACTS.md):
+ *   outside-range: subject below the smallest or above the largest sale value (§4, common practice)
+ *   hidden-extrapolation: h₀ > max hᵢᵢ (Montgomery, Peck & Vining §3.8; §4)
+ *   collinearity: VIF > 5 caution, > 10 serious (§3); condition index > 30 with two or more
+ *     variance-decomposition proportions > 0.5 (Belsley, Kuh & Welsch 1980)
+ *   small-sample: fewer than 10 sales per coefficient or fewer than 30 sales caution, fewer
+ *     than 10 sales or 5 residual df serious (§6; Harrell 2015 §4.4; common practice)
+ *   outlier-sale: |tᵢ| > 3; influential-sale: Dᵢ > 4/n (caution), > 1 (serious);
+ *   high-leverage-sale: hᵢᵢ > 2p/n (Hoaglin & Welsch 1978) (§5)
+ *   nonconstant-variance: Koenker–Breusch–Pagan p < 0.05; non-normal-residuals: Jarque–Bera
+ *     p < 0.05, advisory below 30 sales (§8)
+ *   large-adjustment: over 15 % net or 25 % gross (§10, a former guideline; a flag only)
+ */
+import { isLargeAdjustment, LARGE_GROSS_PERCENT, LARGE_NET_PERCENT } from './adjustment-grid.js';
+import type { EstimateResult, EstimateWarning } from './estimate-result.js';
+import type { ConditionDiagnostics } from '../stats/condition-indices.js';
+
+const fmt = (x: number) => (Math.abs(x) >= 100 || Number.isInteger(x) ? Math.round(x).toLocaleString('en-US') : x.toFixed(2));
+
+function listIds(ids: string[], max = 8): string {
+  return ids.length <= max ? ids.join(', ') : `${ids.slice(0, max).join(', ')} and ${ids.length - max} more`;
+}
+
+export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagnostics): EstimateWarning[] {
+  const w: EstimateWarning[] = [];
+  const n = r.n;
+  const p = r.predictors.length + 1;
+  const used = r.sales.filter((s) => s.used);
+
+  let outside = 0;
+  for (const predictor of r.predictors) {
+    if (predictor === 'months_since_sale') continue; // the subject's 0 is the effective date itself
+    const { min, max, subject } = r.ranges[predictor];
+    if (subject < min || subject > max) {
+      outside++;
+      w.push({
+        code: 'outside-range',
+        severity: 'serious',
+        predictor,
+        subjectValue: subject,
+        min,
+        max,
+        message: `The subject's ${predictor} (${fmt(subject)}) is ${subject < min ? 'below the smallest' : 'above the largest'} among the sales used (${fmt(min)} to ${fmt(max)}). The estimate extrapolates beyond what the sales support.`,
+      });
+    }
+  }
+  if (r.estimate.leverage > r.estimate.maxLeverage)
+    w.push({
+      code: 'hidden-extrapolation',
+      severity: 'serious',
+      leverage: r.estimate.leverage,
+      maxLeverage: r.estimate.maxLeverage,
+      message:
+        outside === 0
+          ? `Each of the subject's values lies within the range of the sales, but the combination is unlike any sale used: its leverage ${r.estimate.leverage.toFixed(3)} exceeds the largest among the sales (${r.estimate.maxLeverage.toFixed(3)}). The estimate extrapolates.`
+          : `The subject's combination of characteristics is also unlike any sale used: its leverage ${r.estimate.leverage.toFixed(3)} exceeds the largest among the sales (${r.estimate.maxLeverage.toFixed(3)}).`,
+    });
+
+  const squaredPair = new Set(['living_area', 'living_area^2']);
+  for (const c of r.coefficients) {
+    if (c.vif === null || !(c.vif > 5)) continue;
+    const expected = r.predictors.includes('living_area^2') && squaredPair.has(c.term);
+    w.push({
+      code: 'collinearity',
+      severity: expected ? 'info' : c.vif > 10 ? 'serious' : 'caution',
+      predictor: c.term,
+      vif: c.vif,
+      message: expected
+        ? `${c.term} has VIF ${c.vif.toFixed(1)}, as expected for a squared term and its base; read the two coefficients together.`
+        : `${c.term} has VIF ${c.vif.toFixed(1)} (above ${c.vif > 10 ? 10 : 5}): it is strongly explained by the other predictors, so its coefficient and adjustment are unstable.`,
+    });
+  }
+  const terms = ['(intercept)', ...r.predictors];
+  conditioning.indices.forEach((index, k) => {
+    const involved = terms.filter((_, j) => conditioning.proportions[k][j] > 0.5);
+    if (index > 30 && involved.length >= 2) {
+      const onlySquare = involved.every((t) => squaredPair.has(t) || t === '(intercept)') && r.predictors.includes('living_area^2');
+      w.push({
+        code: 'collinearity',
+        severity: onlySquare ? 'info' : 'caution',
+        conditionIndex: index,
+        terms: involved,
+        message: `Condition index ${index.toFixed(0)} (above 30) ties together ${involved.join(', ')}: these terms are nearly dependent among the sales used.`,
+      });
+    }
+  });
+
+  if (n < 10 || r.fit.dfResidual < 5)
+    w.push({
+      code: 'small-sample',
+      severity: 'serious',
+      n,
+      message: `Only ${n} sales for ${p} coefficients (${r.fit.dfResidual} residual degrees of freedom): intervals are very wide and diagnostics unreliable.`,
+    });
+  else if (n < Math.max(30, 10 * p))
+    w.push({
+      code: 'small-sample',
+      severity: 'caution',
+      n,
+      message: `${n} sales for ${p} coefficients: fewer than the usual ${Math.max(30, 10 * p)} for a stable model (about 10 per coefficient, 30 at least).`,
+    });
+
+  const outliers = used.filter((s) => s.flags.includes('outlier')).map((s) => s.id);
+  if (outliers.length > 0)
+    w.push({
+      code: 'outlier-sale',
+      severity: 'caution',
+      sales: outliers,
+      message: `Sale${outliers.length > 1 ? 's' : ''} ${listIds(outliers)} ${outliers.length > 1 ? 'are' : 'is'} far from the fitted prices (studentized residual beyond ±3): verify ${outliers.length > 1 ? 'them' : 'it'}.`,
+    });
+  const influential = used.filter((s) => s.flags.includes('influential')).map((s) => s.id);
+  if (influential.length > 0) {
+    const strong = used.filter((s) => s.flags.includes('very-influential')).map((s) => s.id);
+    w.push({
+      code: 'influential-sale',
+      severity: strong.length > 0 ? 'serious' : 'caution',
+      sales: influential,
+      message:
+        strong.length > 0
+          ? `Sale${strong.length > 1 ? 's' : ''} ${listIds(strong)} alone move${strong.length > 1 ? '' : 's'} the fit (Cook's distance above 1); ${influential.length} sale(s) in all exceed 4/n.`
+          : `Sale${influential.length > 1 ? 's' : ''} ${listIds(influential)} have Cook's distance above 4/n = ${(4 / n).toFixed(3)}: the fit leans on them.`,
+    });
+  }
+  const leveraged = used.filter((s) => s.flags.includes('high-leverage')).map((s) => s.id);
+  if (leveraged.length > 0)
+    w.push({
+      code: 'high-leverage-sale',
+      severity: 'info',
+      sales: leveraged,
+      message: `Sale${leveraged.length > 1 ? 's' : ''} ${listIds(leveraged)} ${leveraged.length > 1 ? 'have' : 'has'} unusual characteristics (leverage above 2p/n = ${((2 * p) / n).toFixed(3)}).`,
+    });
+
+  const bp = r.residualTests.breuschPagan;
+  if (bp.p < 0.05)
+    w.push({
+      code: 'nonconstant-variance',
+      severity: 'caution',
+      statistic: bp.statistic,
+      p: bp.p,
+      message: `The spread of residuals changes with the predictors (Breusch–Pagan, Koenker form: ${bp.statistic.toFixed(2)}, p = ${bp.p.toPrecision(2)}), so the interval is too narrow for some properties and too wide for others${r.transform === 'none' ? '; a log price model may help' : ''}.`,
+    });
+  const jb = r.residualTests.jarqueBera;
+  if (jb.p < 0.05)
+    w.push({
+      code: 'non-normal-residuals',
+      severity: n < 30 ? 'info' : 'caution',
+      statistic: jb.statistic,
+      p: jb.p,
+      message: `Residuals do not look normal (Jarque–Bera ${jb.statistic.toFixed(2)}, p = ${jb.p.toPrecision(2)})${n < 30 ? '; with so few sales this test is only advisory' : ''}: the prediction interval's coverage is approximate.`,
+    });
+
+  const leftOut = r.sales.filter((s) => !s.used);
+  if (leftOut.length > 0)
+    w.push({
+      code: 'sales-left-out',
+      severity: 'info',
+      sales: leftOut.map((s) => ({ id: s.id, reason: s.excludedReason })),
+      message: `${leftOut.length} sale${leftOut.length > 1 ? 's were' : ' was'} not used: ${listIds(leftOut.map((s) => `${s.id} (${s.excludedReason})`), 5)}.`,
+    });
+
+  const large = r.grid.filter(isLargeAdjustment).map((g) => g.id);
+  if (large.length > 0)
+    w.push({
+      code: 'large-adjustment',
+      severity: 'info',
+      sales: large,
+      message: `${large.length} of ${r.grid.length} sales need adjustments above ${LARGE_NET_PERCENT} % net or ${LARGE_GROSS_PERCENT} % gross (a former lender guideline, a flag and not a rule): prefer more similar sales in the grid.`,
+    });
+
+  const order = { serious: 0, caution: 1, info: 2 } as const;
+  return w.sort((a, b) => order[a.severity] - order[b.severity]);
+}

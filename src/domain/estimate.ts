@@ -1,0 +1,251 @@
+/**
+ * Sales + subject + model → the whole Result JSON (DESIGN.md "Statistics"): which sales are
+ * used, the standardized fit in unit terms, the subject's value and intervals, diagnostics,
+ * leave-one-out ratio study, warnings and the adjustment grid. Pure: no I/O, no clock.
+ */
+import { conditionDiagnostics } from '../stats/condition-indices.js';
+import { influenceMeasures } from '../stats/influence.js';
+import { pointIntervals } from '../stats/intervals.js';
+import { pressStatistics } from '../stats/press.js';
+import { ratioStudy } from '../stats/ratio-study.js';
+import { breuschPaganKoenker, jarqueBera } from '../stats/residual-tests.js';
+import { standardizedFit, type Term } from '../stats/standardized-fit.js';
+import { varianceInflationFactors } from '../stats/vif.js';
+import { adjustmentGrid } from './adjustment-grid.js';
+import type { EstimateResult, SaleDiagnostics, SaleFlag } from './estimate-result.js';
+import { estimateWarnings } from './estimate-warnings.js';
+import { PREDICTOR_SOURCE, saleValue, subjectValue, type ModelSpec } from './model.js';
+import type { Sale, Subject } from './sale.js';
+
+/** A model that cannot give a number: each problem says what is wrong and what to do. */
+export class EstimateError extends Error {
+  constructor(public readonly problems: string[]) {
+    super(problems.join('\n'));
+    this.name = 'EstimateError';
+  }
+}
+
+interface UsedSale {
+  sale: Sale;
+  values: number[];
+}
+
+/** Splits sales into used and left out (with the reason), per DESIGN.md "Sales used". */
+export function selectSales(sales: readonly Sale[], subject: Subject, model: ModelSpec): { used: UsedSale[]; leftOut: { sale: Sale; reason: string }[] } {
+  const used: UsedSale[] = [];
+  const leftOut: { sale: Sale; reason: string }[] = [];
+  for (const sale of sales) {
+    if (!sale.included) {
+      leftOut.push({ sale, reason: `excluded: ${sale.excludedReason ?? 'no reason given'}` });
+      continue;
+    }
+    const values: number[] = [];
+    const missing = new Set<string>();
+    for (const predictor of model.predictors) {
+      const v = saleValue(predictor, sale, subject.effectiveDate);
+      if (v === undefined) missing.add(PREDICTOR_SOURCE[predictor] ?? predictor);
+      else values.push(v);
+    }
+    if (missing.size > 0) leftOut.push({ sale, reason: `missing ${[...missing].join(', ')}` });
+    else used.push({ sale, values });
+  }
+  return { used, leftOut };
+}
+
+export function runEstimate(sales: readonly Sale[], subject: Subject, model: ModelSpec): EstimateResult {
+  const { predictors, transform, level } = model;
+  const k = predictors.length;
+  const p = k + 1;
+
+  const subjectValues: number[] = [];
+  const problems: string[] = [];
+  for (const predictor of predictors) {
+    const v = subjectValue(predictor, subject);
+    if (v === undefined) problems.push(`the subject has no ${PREDICTOR_SOURCE[predictor]}, which ${predictor} needs: enter it or drop ${predictor} from the model`);
+    else subjectValues.push(v);
+  }
+  if (problems.length > 0) throw new EstimateError(problems);
+
+  const { used, leftOut } = selectSales(sales, subject, model);
+  const n = used.length;
+  if (n <= p)
+    throw new EstimateError([
+      `only ${n} sale${n === 1 ? '' : 's'} can be used but the model has ${p} coefficients (intercept + ${predictors.join(', ')}); ` +
+        `it needs at least ${p + 1} sales to leave any residual degrees of freedom: add sales or drop predictors` +
+        (leftOut.length > 0 ? ` (${leftOut.length} left out, e.g. ${leftOut[0].sale.id}: ${leftOut[0].reason})` : ''),
+    ]);
+
+  const terms: Term[] = predictors.map((name, j) => ({
+    name,
+    values: Float64Array.from(used, (u) => u.values[j]),
+    ...(name === 'living_area^2' ? { squareOf: predictors.indexOf('living_area') } : {}),
+  }));
+  const constant = terms.filter((t) => t.values.every((x) => x === t.values[0]));
+  if (constant.length > 0)
+    throw new EstimateError(
+      constant.map((t) => `${t.name} has no variation among the ${n} sales used (every one is ${round(t.values[0])}): drop it from the model`),
+    );
+  const prices = Float64Array.from(used, (u) => u.sale.salePrice);
+  const y = transform === 'log' ? prices.map(Math.log) : prices;
+
+  let fit;
+  try {
+    fit = standardizedFit(terms, y);
+  } catch (err) {
+    const m = /leastSquares: (.+) is an exact linear combination of (.+) \(collinear\)/.exec((err as Error).message);
+    if (m)
+      throw new EstimateError([
+        `${m[1]} is an exact linear combination of ${m[2].replace('(intercept)', 'a constant')} among the sales used (perfectly collinear): drop one of them from the model`,
+      ]);
+    throw err;
+  }
+  const ls = fit.regression.ls;
+  const sigma = ls.sigma;
+  const df = ls.dfResidual;
+
+  // Subject: ŷ₀, h₀ and both intervals on the model's scale, then back to price units.
+  const at = fit.predictAt(subjectValues);
+  const iv = pointIntervals(at.fit, sigma, at.leverage, df, level);
+  const smearingFactor = transform === 'log' ? ls.residuals.reduce((s, e) => s + Math.exp(e), 0) / n : 1;
+  const back = (v: number) => (transform === 'log' ? Math.exp(v) : v);
+  const maxLeverage = ls.hatValues.reduce((a, b) => Math.max(a, b), 0);
+
+  const vif = varianceInflationFactors(fit.rawUnscaledCovariance, fit.rawColumns, 0);
+  const conditioning = conditionDiagnostics(fit.rawColumns);
+  const influence = influenceMeasures(ls.residuals, ls.hatValues, sigma, p);
+  const press = pressStatistics(ls.residuals, ls.hatValues, fit.regression.tss);
+
+  // Leave-one-out predictions ŷ₍ᵢ₎ = yᵢ − e₍ᵢ₎ (exp for log), then the ratio study on them.
+  const looPrediction = new Float64Array(n);
+  const looIdx: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const e = press.pressResiduals[i];
+    looPrediction[i] = Number.isNaN(e) ? NaN : back(y[i] - e);
+    if (!Number.isNaN(e)) looIdx.push(i);
+  }
+  const ratios = ratioStudy(
+    looIdx.map((i) => looPrediction[i]),
+    looIdx.map((i) => prices[i]),
+  );
+
+  const leverageCut = (2 * p) / n;
+  const cooksCut = 4 / n;
+  const saleRows: SaleDiagnostics[] = used.map((u, i) => {
+    const flags: SaleFlag[] = [];
+    if (leverageCut < 1 && ls.hatValues[i] > leverageCut) flags.push('high-leverage');
+    if (Math.abs(influence.externallyStudentized[i]) > 3) flags.push('outlier');
+    if (influence.cooksDistance[i] > cooksCut) flags.push('influential');
+    if (influence.cooksDistance[i] > 1) flags.push('very-influential');
+    return {
+      id: u.sale.id,
+      used: true,
+      excludedReason: null,
+      fitted: back(ls.fitted[i]),
+      residual: transform === 'log' ? ls.residuals[i] : ls.residuals[i],
+      leverage: ls.hatValues[i],
+      studentized: finiteOrNull(influence.externallyStudentized[i]),
+      standardizedResidual: finiteOrNull(influence.studentized[i]),
+      cooksDistance: finiteOrNull(influence.cooksDistance[i]),
+      dffits: finiteOrNull(influence.dffits[i]),
+      looPrediction: finiteOrNull(looPrediction[i]),
+      flags,
+    };
+  });
+  for (const l of leftOut)
+    saleRows.push({
+      id: l.sale.id,
+      used: false,
+      excludedReason: l.reason,
+      fitted: null,
+      residual: null,
+      leverage: null,
+      studentized: null,
+      standardizedResidual: null,
+      cooksDistance: null,
+      dffits: null,
+      looPrediction: null,
+      flags: [],
+    });
+
+  const coefficients = fit.coefficients.map((c, j) => ({
+    term: c.term as EstimateResult['coefficients'][number]['term'],
+    estimate: c.estimate,
+    stdError: c.stdError,
+    t: c.t,
+    p: c.p,
+    standardized: c.standardized,
+    vif: vif[j],
+  }));
+  const unit = coefficients.slice(1).map((c) => c.estimate);
+  const grid = adjustmentGrid(
+    predictors,
+    unit,
+    subjectValues,
+    used.map((u) => ({ id: u.sale.id, salePrice: u.sale.salePrice, values: u.values })),
+    transform,
+  );
+
+  const ranges: EstimateResult['ranges'] = {};
+  predictors.forEach((name, j) => {
+    const v = terms[j].values;
+    ranges[name] = { min: v.reduce((a, b) => Math.min(a, b)), max: v.reduce((a, b) => Math.max(a, b)), subject: subjectValues[j] };
+  });
+
+  const residualTests = { breuschPagan: breuschPaganKoenker(ls), jarqueBera: jarqueBera(ls.residuals) };
+  const result: EstimateResult = {
+    n,
+    predictors: [...predictors],
+    transform,
+    level,
+    coefficients,
+    fit: {
+      rSquared: fit.regression.rSquared,
+      adjRSquared: fit.regression.adjRSquared,
+      sigma,
+      fStatistic: fit.regression.fStatistic,
+      fPValue: fit.regression.fPValue,
+      dfResidual: df,
+      conditionNumber: conditioning.conditionNumber,
+      conditionIndices: conditioning.indices,
+    },
+    estimate: {
+      value: back(at.fit) * smearingFactor,
+      fit: at.fit,
+      fitStdError: iv.fitStdError,
+      predictionStdError: iv.predictionStdError,
+      leverage: at.leverage,
+      maxLeverage,
+      confidence: [back(iv.confidence[0]), back(iv.confidence[1])],
+      prediction: [back(iv.prediction[0]), back(iv.prediction[1])],
+      median: back(at.fit),
+      smearingFactor,
+      predictorValues: Object.fromEntries(predictors.map((name, j) => [name, subjectValues[j]])),
+    },
+    warnings: [],
+    sales: saleRows,
+    validation: {
+      press: press.press,
+      predictedRSquared: press.predictedRSquared,
+      medianRatio: ratios.medianRatio,
+      meanRatio: ratios.meanRatio,
+      weightedMeanRatio: ratios.weightedMeanRatio,
+      cod: ratios.cod,
+      prd: ratios.prd,
+      prb: ratios.prb,
+      count: ratios.count,
+    },
+    residualTests,
+    ranges,
+    grid,
+  };
+  result.warnings = estimateWarnings(result, conditioning);
+  return result;
+}
+
+function finiteOrNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
+}
+
+function round(x: number): string {
+  return Number.isInteger(x) ? String(x) : x.toFixed(2);
+}
