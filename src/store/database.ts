@@ -4,6 +4,8 @@
  * Embedded files get WAL journaling (readers do not block the writer) and a busy timeout
  * so the web app and the command line can use one file at the same time.
  */
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
 import { createClient, type Client } from '@libsql/client';
 import { drizzle, type LibSQLDatabase } from 'drizzle-orm/libsql';
 import * as schema from './schema.js';
@@ -23,8 +25,17 @@ export function isEmbeddedFileUrl(url: string): boolean {
   return url.startsWith('file:');
 }
 
+/** The path of an embedded file URL: `file:data/x.db` → `data/x.db`, `file:///srv/x.db` → `/srv/x.db`. */
+export function embeddedFilePath(url: string): string {
+  let p = url.slice('file:'.length).split('?')[0];
+  if (p.startsWith('//')) p = p.slice(2);
+  return p;
+}
+
+/** Opens (and for an embedded file, creates with its folder) the database. Call migrateDatabase next. */
 export async function openDatabase(options: DatabaseOptions): Promise<Database> {
   const embedded = isEmbeddedFileUrl(options.url);
+  if (embedded) mkdirSync(path.dirname(path.resolve(embeddedFilePath(options.url))), { recursive: true });
   const client = createClient({
     url: options.url,
     ...(options.authToken ? { authToken: options.authToken } : {}),

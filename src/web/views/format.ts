@@ -1,0 +1,37 @@
+/** Number, money and area formatting for pages, in one place so every page agrees. */
+import { AREA_UNIT_LABELS, type AreaUnit } from '../../store/market-fields.js';
+
+const LOCALE = 'en-US';
+
+export function formatMoney(amount: number, currency: string): string {
+  const whole = Number.isInteger(amount);
+  return new Intl.NumberFormat(LOCALE, {
+    style: 'currency',
+    currency,
+    minimumFractionDigits: whole ? 0 : 2,
+    maximumFractionDigits: whole ? 0 : 2,
+  }).format(amount);
+}
+
+/** The symbol (or code) of a currency, for the label beside a price input. */
+export function currencySymbol(currency: string): string {
+  const part = new Intl.NumberFormat(LOCALE, { style: 'currency', currency }).formatToParts(0).find((p) => p.type === 'currency');
+  return part?.value ?? currency;
+}
+
+export function formatNumber(n: number | undefined, maximumFractionDigits = 2): string {
+  return n === undefined ? '' : new Intl.NumberFormat(LOCALE, { maximumFractionDigits }).format(n);
+}
+
+export function areaLabel(unit: string): string {
+  return AREA_UNIT_LABELS[unit as AreaUnit] ?? unit;
+}
+
+export function formatArea(n: number | undefined, unit: string): string {
+  return n === undefined ? '' : `${formatNumber(n, 1)} ${areaLabel(unit)}`;
+}
+
+/** An ISO timestamp as `2024-05-01 14:03 UTC`: unambiguous and the same for every reader. */
+export function formatTime(iso: string): string {
+  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+}
