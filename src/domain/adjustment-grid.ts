@@ -11,43 +11,43 @@
  */
 import type { GridRow, Predictor, Transform } from './estimate-result.js';
 
-export interface GridInput {
-  id: string;
-  salePrice: number;
-  /** The sale's value of each predictor, in model order. */
-  values: number[];
-}
-
 export function adjustmentGrid(
   predictors: readonly Predictor[],
   unitCoefficients: readonly number[],
   subjectValues: readonly number[],
-  sales: readonly GridInput[],
+  ids: readonly string[],
+  prices: ArrayLike<number>,
+  /** One column of sale values per predictor, in model order. */
+  values: readonly ArrayLike<number>[],
   transform: Transform,
 ): GridRow[] {
-  return sales
-    .map((sale) => {
-      const adjustments: Record<string, number> = {};
-      let sum = 0;
-      let gross = 0;
-      predictors.forEach((name, j) => {
-        const raw = unitCoefficients[j] * (subjectValues[j] - sale.values[j]);
-        const amount = transform === 'log' ? sale.salePrice * Math.expm1(raw) : raw;
-        adjustments[name] = amount;
-        sum += raw;
-        gross += Math.abs(amount);
-      });
-      const adjustedPrice = transform === 'log' ? sale.salePrice * Math.exp(sum) : sale.salePrice + sum;
-      return {
-        id: sale.id,
-        salePrice: sale.salePrice,
-        adjustments,
-        adjustedPrice,
-        netPercent: (100 * (adjustedPrice - sale.salePrice)) / sale.salePrice,
-        grossPercent: (100 * gross) / sale.salePrice,
-      };
-    })
-    .sort((a, b) => a.grossPercent - b.grossPercent || a.id.localeCompare(b.id));
+  const n = ids.length;
+  const k = predictors.length;
+  const rows: GridRow[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const price = prices[i];
+    const adjustments: Record<string, number> = {};
+    let sum = 0;
+    let grossSum = 0;
+    for (let j = 0; j < k; j++) {
+      const raw = unitCoefficients[j] * (subjectValues[j] - values[j][i]);
+      const amount = transform === 'log' ? price * Math.expm1(raw) : raw;
+      adjustments[predictors[j]] = amount;
+      sum += raw;
+      grossSum += Math.abs(amount);
+    }
+    const adjustedPrice = transform === 'log' ? price * Math.exp(sum) : price + sum;
+    rows[i] = {
+      id: ids[i],
+      salePrice: price,
+      adjustments,
+      adjustedPrice,
+      netPercent: (100 * (adjustedPrice - price)) / price,
+      grossPercent: (100 * grossSum) / price,
+    };
+  }
+  // Smallest gross adjustment first; the sort is stable, so ties keep the sales' order.
+  return rows.sort((a, b) => a.grossPercent - b.grossPercent);
 }
 
 /** 15 % net / 25 % gross: a former lender guideline, shown as a flag only (TRADE-FACTS.md §10). */

@@ -27,7 +27,7 @@ export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagn
   const w: EstimateWarning[] = [];
   const n = r.n;
   const p = r.predictors.length + 1;
-  const used = r.sales.filter((s) => s.used);
+  const used = r.sales.filter((s) => s.used && s.flags.length > 0);
 
   let outside = 0;
   for (const predictor of r.predictors) {

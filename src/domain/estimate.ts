@@ -3,7 +3,7 @@
  * used, the standardized fit in unit terms, the subject's value and intervals, diagnostics,
  * leave-one-out ratio study, warnings and the adjustment grid. Pure: no I/O, no clock.
  */
-import { conditionDiagnostics } from '../stats/condition-indices.js';
+import { conditionDiagnosticsOfFactor } from '../stats/condition-indices.js';
 import { influenceMeasures } from '../stats/influence.js';
 import { pointIntervals } from '../stats/intervals.js';
 import { pressStatistics } from '../stats/press.js';
@@ -25,31 +25,41 @@ export class EstimateError extends Error {
   }
 }
 
-interface UsedSale {
-  sale: Sale;
-  values: number[];
-}
-
-/** Splits sales into used and left out (with the reason), per DESIGN.md "Sales used". */
-export function selectSales(sales: readonly Sale[], subject: Subject, model: ModelSpec): { used: UsedSale[]; leftOut: { sale: Sale; reason: string }[] } {
-  const used: UsedSale[] = [];
+/**
+ * Splits sales into used and left out (with the reason), per DESIGN.md "Sales used", and
+ * reads each predictor of the sales used into a column.
+ */
+export function selectSales(
+  sales: readonly Sale[],
+  subject: Subject,
+  model: ModelSpec,
+): { used: Sale[]; columns: Float64Array[]; leftOut: { sale: Sale; reason: string }[] } {
+  const k = model.predictors.length;
+  const used: Sale[] = [];
   const leftOut: { sale: Sale; reason: string }[] = [];
+  const columns = Array.from({ length: k }, () => new Float64Array(sales.length));
   for (const sale of sales) {
     if (!sale.included) {
       leftOut.push({ sale, reason: `excluded: ${sale.excludedReason ?? 'no reason given'}` });
       continue;
     }
-    const values: number[] = [];
-    const missing = new Set<string>();
-    for (const predictor of model.predictors) {
-      const v = saleValue(predictor, sale, subject.effectiveDate);
-      if (v === undefined) missing.add(PREDICTOR_SOURCE[predictor] ?? predictor);
-      else values.push(v);
+    const row = used.length;
+    let complete = true;
+    for (let j = 0; j < k && complete; j++) {
+      const v = saleValue(model.predictors[j], sale, subject.effectiveDate);
+      if (v === undefined) complete = false;
+      else columns[j][row] = v;
     }
-    if (missing.size > 0) leftOut.push({ sale, reason: `missing ${[...missing].join(', ')}` });
-    else used.push({ sale, values });
+    if (complete) {
+      used.push(sale);
+      continue;
+    }
+    const missing = new Set<string>();
+    for (const predictor of model.predictors)
+      if (saleValue(predictor, sale, subject.effectiveDate) === undefined) missing.add(PREDICTOR_SOURCE[predictor] ?? predictor);
+    leftOut.push({ sale, reason: `missing ${[...missing].join(', ')}` });
   }
-  return { used, leftOut };
+  return { used, columns: columns.map((c) => c.slice(0, used.length)), leftOut };
 }
 
 export function runEstimate(sales: readonly Sale[], subject: Subject, model: ModelSpec): EstimateResult {
@@ -66,7 +76,7 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
   }
   if (problems.length > 0) throw new EstimateError(problems);
 
-  const { used, leftOut } = selectSales(sales, subject, model);
+  const { used, columns, leftOut } = selectSales(sales, subject, model);
   const n = used.length;
   if (n <= p)
     throw new EstimateError([
@@ -77,15 +87,19 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
 
   const terms: Term[] = predictors.map((name, j) => ({
     name,
-    values: Float64Array.from(used, (u) => u.values[j]),
+    values: columns[j],
     ...(name === 'living_area^2' ? { squareOf: predictors.indexOf('living_area') } : {}),
   }));
-  const constant = terms.filter((t) => t.values.every((x) => x === t.values[0]));
+  const constant = terms.filter((t) => {
+    for (let i = 1; i < n; i++) if (t.values[i] !== t.values[0]) return false;
+    return true;
+  });
   if (constant.length > 0)
     throw new EstimateError(
       constant.map((t) => `${t.name} has no variation among the ${n} sales used (every one is ${round(t.values[0])}): drop it from the model`),
     );
-  const prices = Float64Array.from(used, (u) => u.sale.salePrice);
+  const prices = new Float64Array(n);
+  for (let i = 0; i < n; i++) prices[i] = used[i].salePrice;
   const y = transform === 'log' ? prices.map(Math.log) : prices;
 
   let fit;
@@ -110,8 +124,8 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
   const back = (v: number) => (transform === 'log' ? Math.exp(v) : v);
   const maxLeverage = ls.hatValues.reduce((a, b) => Math.max(a, b), 0);
 
-  const vif = varianceInflationFactors(fit.rawUnscaledCovariance, fit.rawColumns, 0);
-  const conditioning = conditionDiagnostics(fit.rawColumns);
+  const vif = varianceInflationFactors(fit.rawUnscaledCovariance, [null, ...fit.sds.map((sd) => (n - 1) * sd * sd)]);
+  const conditioning = conditionDiagnosticsOfFactor(fit.rawDesignFactor);
   const influence = influenceMeasures(ls.residuals, ls.hatValues, sigma, p);
   const press = pressStatistics(ls.residuals, ls.hatValues, fit.regression.tss);
 
@@ -124,33 +138,41 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
     if (!Number.isNaN(e)) looIdx.push(i);
   }
   const ratios = ratioStudy(
-    looIdx.map((i) => looPrediction[i]),
-    looIdx.map((i) => prices[i]),
+    Float64Array.from(looIdx, (i) => looPrediction[i]),
+    Float64Array.from(looIdx, (i) => prices[i]),
   );
 
   const leverageCut = (2 * p) / n;
   const cooksCut = 4 / n;
-  const saleRows: SaleDiagnostics[] = used.map((u, i) => {
-    const flags: SaleFlag[] = [];
-    if (leverageCut < 1 && ls.hatValues[i] > leverageCut) flags.push('high-leverage');
-    if (Math.abs(influence.externallyStudentized[i]) > 3) flags.push('outlier');
-    if (influence.cooksDistance[i] > cooksCut) flags.push('influential');
-    if (influence.cooksDistance[i] > 1) flags.push('very-influential');
-    return {
-      id: u.sale.id,
+  const saleRows: SaleDiagnostics[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const h = ls.hatValues[i];
+    const t = influence.externallyStudentized[i];
+    const d = influence.cooksDistance[i];
+    // Most sales carry no flag: they share one empty list instead of allocating their own.
+    let flags: SaleFlag[] = NO_FLAGS;
+    if ((leverageCut < 1 && h > leverageCut) || Math.abs(t) > 3 || d > cooksCut) {
+      flags = [];
+      if (leverageCut < 1 && h > leverageCut) flags.push('high-leverage');
+      if (Math.abs(t) > 3) flags.push('outlier');
+      if (d > cooksCut) flags.push('influential');
+      if (d > 1) flags.push('very-influential');
+    }
+    saleRows[i] = {
+      id: used[i].id,
       used: true,
       excludedReason: null,
       fitted: back(ls.fitted[i]),
-      residual: transform === 'log' ? ls.residuals[i] : ls.residuals[i],
-      leverage: ls.hatValues[i],
-      studentized: finiteOrNull(influence.externallyStudentized[i]),
+      residual: ls.residuals[i],
+      leverage: h,
+      studentized: finiteOrNull(t),
       standardizedResidual: finiteOrNull(influence.studentized[i]),
-      cooksDistance: finiteOrNull(influence.cooksDistance[i]),
+      cooksDistance: finiteOrNull(d),
       dffits: finiteOrNull(influence.dffits[i]),
       looPrediction: finiteOrNull(looPrediction[i]),
       flags,
     };
-  });
+  }
   for (const l of leftOut)
     saleRows.push({
       id: l.sale.id,
@@ -181,14 +203,22 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
     predictors,
     unit,
     subjectValues,
-    used.map((u) => ({ id: u.sale.id, salePrice: u.sale.salePrice, values: u.values })),
+    used.map((u) => u.id),
+    prices,
+    terms.map((t) => t.values),
     transform,
   );
 
   const ranges: EstimateResult['ranges'] = {};
   predictors.forEach((name, j) => {
     const v = terms[j].values;
-    ranges[name] = { min: v.reduce((a, b) => Math.min(a, b)), max: v.reduce((a, b) => Math.max(a, b)), subject: subjectValues[j] };
+    let min = v[0];
+    let max = v[0];
+    for (let i = 1; i < n; i++) {
+      if (v[i] < min) min = v[i];
+      else if (v[i] > max) max = v[i];
+    }
+    ranges[name] = { min, max, subject: subjectValues[j] };
   });
 
   const residualTests = { breuschPagan: breuschPaganKoenker(ls), jarqueBera: jarqueBera(ls.residuals) };
@@ -241,6 +271,8 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
   result.warnings = estimateWarnings(result, conditioning);
   return result;
 }
+
+const NO_FLAGS: SaleFlag[] = Object.freeze([]) as unknown as SaleFlag[];
 
 function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;

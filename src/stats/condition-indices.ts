@@ -9,8 +9,9 @@ import { householderQr } from './householder-qr.js';
  * coefficients marks a damaging near-dependency among them.
  * Ref: Belsley, Kuh & Welsch, Regression Diagnostics, Wiley 1980, ch. 3.
  *
- * The SVD is taken of the p × p factor R of the scaled X (same singular values and V),
- * so the cost is one O(n·p²) QR.
+ * The SVD is taken of a p × p factor F with XᵀX = FᵀF (X = QF shares singular values,
+ * right singular vectors and column lengths with F), so from a fit's designFactor it costs
+ * O(p³); from raw columns, one O(n·p²) QR first.
  */
 export interface ConditionDiagnostics {
   conditionNumber: number;
@@ -21,16 +22,16 @@ export interface ConditionDiagnostics {
 }
 
 export function conditionDiagnostics(columns: readonly Float64Array[]): ConditionDiagnostics {
-  const p = columns.length;
-  const scaled = columns.map((c) => {
-    let ss = 0;
-    for (let i = 0; i < c.length; i++) ss += c[i] * c[i];
-    if (ss === 0) throw new RangeError('conditionDiagnostics: a column is all zeros');
-    const norm = Math.sqrt(ss);
-    return c.map((x) => x / norm);
-  });
-  const { r } = householderQr(scaled);
-  const svd = new SingularValueDecomposition(r, { computeLeftSingularVectors: false });
+  return conditionDiagnosticsOfFactor(householderQr(columns.map((c) => c.slice())).r);
+}
+
+/** The same diagnostics from a p × p factor F of XᵀX = FᵀF. */
+export function conditionDiagnosticsOfFactor(factor: readonly (readonly number[])[]): ConditionDiagnostics {
+  const p = factor.length;
+  const norms = Array.from({ length: p }, (_, j) => Math.hypot(...factor.map((row) => row[j])));
+  if (norms.some((x) => x === 0)) throw new RangeError('conditionDiagnostics: a column is all zeros');
+  const scaled = factor.map((row) => row.map((x, j) => x / norms[j]));
+  const svd = new SingularValueDecomposition(scaled, { computeLeftSingularVectors: false });
   const mu = svd.diagonal;
   const v = svd.rightSingularVectors.to2DArray();
   const order = mu.map((_, k) => k).sort((a, b) => mu[b] - mu[a]);

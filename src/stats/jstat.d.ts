@@ -2,6 +2,7 @@
 declare module 'jstat' {
   interface Distribution {
     cdf(x: number, ...params: number[]): number;
+    pdf(x: number, ...params: number[]): number;
     inv(p: number, ...params: number[]): number;
   }
   const jstat: {
@@ -9,8 +10,8 @@ declare module 'jstat' {
       studentt: Distribution;
       centralF: Distribution;
       chisquare: Distribution;
-      /** Regularized incomplete beta I_x(a, b). */
-      ibeta(x: number, a: number, b: number): number;
+      /** log Γ(x) by the SPECFUN Stirling series (about 1e-15). */
+      loggam(x: number): number;
     };
   };
   export default jstat;

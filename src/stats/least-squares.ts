@@ -19,6 +19,12 @@ export interface LeastSquaresFit {
   unscaledCovariance: number[][];
   /** Condition number of the centred, column-scaled design the QR worked on. */
   scaledConditionNumber: number;
+  /**
+   * A p × p matrix F with XᵀX = FᵀF (F = R M for the scaled factor R and the design
+   * transform M). X = QF, so X and F share singular values, right singular vectors and
+   * column lengths: collinearity diagnostics need only F.
+   */
+  designFactor: number[][];
   /** Index of the intercept column (a nonzero constant), or −1. */
   interceptColumn: number;
   /** x₀ᵀ(XᵀX)⁻¹x₀ for a new row x₀ (same columns as the design). */
@@ -180,6 +186,7 @@ export function leastSquaresColumns(
     hatValues,
     unscaledCovariance,
     scaledConditionNumber: conditionNumber,
+    designFactor: r.map((row) => transform.fromScaledRow(row)),
     interceptColumn: transform.intercept,
     explainedSumOfSquares: (values) => {
       if (values.length !== n) throw new RangeError(`explainedSumOfSquares: need ${n} values, got ${values.length}`);
@@ -207,6 +214,8 @@ interface DesignTransform {
   intercept: number;
   toScaledColumn(column: Float64Array, j: number): Float64Array;
   toScaledRow(row: ArrayLike<number>, out: Float64Array): void;
+  /** A row vector u of X_s's coordinates → uM (X = X_s M). */
+  fromScaledRow(u: readonly number[]): number[];
   /** z (coefficients of X_s) → b = M⁻¹z. */
   toOriginal(z: readonly number[]): number[];
   /** g = Xᵀv → X_sᵀv = M⁻ᵀg. */
@@ -252,6 +261,9 @@ function designTransform(columns: readonly Float64Array[], names: readonly strin
     toScaledRow: (row, out) => {
       for (let j = 0; j < p; j++) out[j] = (row[j] - centre[j]) / scale[j];
     },
+    // x_j = scale_j·xs_j + (centre_j/v)·scale_c·xs_c: M = diag(scale) plus the intercept's row.
+    fromScaledRow: (u) =>
+      u.map((_, b) => u[b] * scale[b] + (intercept >= 0 && b !== intercept ? u[intercept] * ((centre[b] * scale[intercept]) / interceptValue) : 0)),
     toOriginal: (z) => {
       const b = z.map((zj, j) => zj / scale[j]);
       if (intercept >= 0) for (let j = 0; j < p; j++) if (j !== intercept) b[intercept] -= (centre[j] / interceptValue) * b[j];

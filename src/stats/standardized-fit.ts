@@ -1,3 +1,4 @@
+import { inverse, Matrix } from 'ml-matrix';
 import { twoSidedTPValue } from './distributions.js';
 import { fitRegression, type RegressionFit } from './regression.js';
 
@@ -32,8 +33,8 @@ export interface StandardizedFit {
   means: number[];
   sds: number[];
   responseSd: number;
-  /** Raw design columns [1, term values…] (for condition indices and VIF). */
-  rawColumns: Float64Array[];
+  /** F with X_rawᵀX_raw = FᵀF for the raw design [1, terms…] (collinearity diagnostics). */
+  rawDesignFactor: number[][];
   /** ŷ and leverage at a new point given by its raw term values. */
   predictAt(rawValues: readonly number[]): { fit: number; leverage: number };
 }
@@ -111,7 +112,8 @@ export function standardizedFit(terms: readonly Term[], y: ArrayLike<number>): S
     means: stats.map((s) => s.mean),
     sds: stats.map((s) => s.sd),
     responseSd,
-    rawColumns: [new Float64Array(n).fill(1), ...terms.map((t) => t.values)],
+    // W = X_raw Lᵀ, so X_raw = W L⁻ᵀ and its factor is F_W L⁻ᵀ.
+    rawDesignFactor: new Matrix(regression.ls.designFactor).mmul(inverse(new Matrix(l).transpose())).to2DArray(),
     predictAt(rawValues) {
       if (rawValues.length !== k) throw new RangeError(`predictAt: need ${k} values, got ${rawValues.length}`);
       const raw = [1, ...rawValues];

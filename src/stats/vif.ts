@@ -6,23 +6,14 @@
  * error is inflated by collinearity (about √VIF).
  * Ref: Kutner et al., Applied Linear Statistical Models, 5th ed., §10.5; Montgomery, Peck &
  * Vining, 5th ed., §9.4.
- * @example varianceInflationFactors([[0.5, 0], [0, 0.25]], [Float64Array.of(1, 2, 3)]) ...
+ * @example varianceInflationFactors([[1, 0, 0], [0, 0.5, 0], [0, 0, 0.25]], [null, 2, 4]) // => [null, 1, 1]
  */
 export function varianceInflationFactors(
   unscaledCovariance: readonly (readonly number[])[],
-  columns: readonly Float64Array[],
-  interceptColumn: number,
+  /** Σ(xᵢⱼ − x̄ⱼ)² per column; null for the intercept. */
+  centredSumsOfSquares: readonly (number | null)[],
 ): (number | null)[] {
-  if (interceptColumn < 0) throw new RangeError('varianceInflationFactors: need a model with an intercept');
-  const slopes = columns.length - 1;
-  return columns.map((c, j) => {
-    if (j === interceptColumn) return null;
-    if (slopes === 1) return 1;
-    let mean = 0;
-    for (let i = 0; i < c.length; i++) mean += c[i];
-    mean /= c.length;
-    let sjj = 0;
-    for (let i = 0; i < c.length; i++) sjj += (c[i] - mean) ** 2;
-    return unscaledCovariance[j][j] * sjj;
-  });
+  const slopes = centredSumsOfSquares.filter((s) => s !== null).length;
+  if (slopes === centredSumsOfSquares.length) throw new RangeError('varianceInflationFactors: need a model with an intercept');
+  return centredSumsOfSquares.map((sjj, j) => (sjj === null ? null : slopes === 1 ? 1 : unscaledCovariance[j][j] * sjj));
 }
