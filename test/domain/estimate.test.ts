@@ -157,3 +157,23 @@ describe('validateModel', () => {
     expect(r.ok && r.value.predictors).toEqual(['age', 'living_area', 'living_area^2']);
   });
 });
+
+describe('estimateCharts', async () => {
+  const { estimateCharts, niceAxis } = await import('../../src/domain/estimate-charts.js');
+  it('niceAxis covers the data with 1-2-5 steps', () => {
+    expect(niceAxis(0.3, 9.2, 5)).toMatchObject({ min: 0, max: 10, ticks: [0, 2, 4, 6, 8, 10] });
+    expect(niceAxis(181000, 262000, 4).ticks).toEqual([180000, 200000, 220000, 240000, 260000, 280000]);
+  });
+  it('draws a strip and a price chart per predictor and one residual chart, subject marked', () => {
+    const sales = syntheticSales(30, 4);
+    const subject = makeSubject({ living_area: 5000, year_built: 1990, rooms: 6 });
+    const r = runEstimate(sales, subject, DEFAULT_MODEL);
+    const { charts, interval } = estimateCharts(r, sales, subject, 'sq ft');
+    expect(charts.map((c) => c.id)).toEqual(['strip-living_area', 'price-living_area', 'strip-age', 'price-age', 'strip-rooms', 'price-rooms', 'residuals']);
+    expect(charts[0].subject).toEqual({ x: 5000, outside: true });
+    expect(charts[0].x.max).toBeGreaterThanOrEqual(5000);
+    expect(charts[0].description).toMatch(/outside that range/);
+    expect(charts[6].points).toHaveLength(30);
+    expect(interval.prediction).toEqual(r.estimate.prediction);
+  });
+});
