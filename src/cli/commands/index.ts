@@ -4,4 +4,7 @@
  */
 import { registerCommand } from '../main.js';
 
-void registerCommand;
+registerCommand('import', 'import --market NAME FILE.csv [--create [--area-unit sqft|m2] [--currency USD]] [--replace]', async () => (await import('./import.js')).importCommand);
+registerCommand('export', 'export --market NAME [--output FILE.csv]', async () => (await import('./export.js')).exportCommand);
+registerCommand('serve', 'serve [--port 3000] [--host 127.0.0.1]', async () => (await import('./serve.js')).serveCommand);
+registerCommand('seed', 'seed   (rebuild the demo market)', async () => (await import('./seed.js')).seedCommand);

@@ -45,7 +45,7 @@ export function Field(p: FieldProps) {
         ) : (
           <input {...common} type={p.type ?? 'text'} inputmode={p.inputmode} value={p.value ?? ''} />
         )}
-        {p.unit ? <span class="unit">{p.unit}</span> : null}
+        {p.unit !== undefined ? <span class="unit">{p.unit}</span> : null}
       </div>
       {p.hint ? (
         <p class="hint" id={`${id}-hint`}>

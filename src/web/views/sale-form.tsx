@@ -35,10 +35,9 @@ export function saleValues(s: Sale): RawFields {
   return v;
 }
 
-function unitOf(market: Market, unit: (typeof CHARACTERISTIC_RULES)[keyof typeof CHARACTERISTIC_RULES]['unit']): string | undefined {
-  if (unit === 'area') return areaLabel(market.areaUnit);
-  if (unit === 'bath') return 'half bath = 0.5';
-  return undefined;
+/** The unit beside a characteristic's input; an empty one keeps the grid's inputs the same width. */
+function unitOf(market: Market, unit: (typeof CHARACTERISTIC_RULES)[keyof typeof CHARACTERISTIC_RULES]['unit']): string {
+  return unit === 'area' ? areaLabel(market.areaUnit) : '';
 }
 
 export function SaleForm(p: SaleFormProps) {
@@ -51,7 +50,7 @@ export function SaleForm(p: SaleFormProps) {
       <fieldset>
         <legend>The sale</legend>
         <Field name="address" label="Address" value={values.address} error={errors.address} required maxlength={MAX_TEXT_LENGTH.address} autofocus />
-        <Field name="sale_date" label="Sale date" type="date" value={values.sale_date} error={errors.sale_date} required hint="YYYY-MM-DD" />
+        <Field name="sale_date" label="Sale date" type="date" value={values.sale_date} error={errors.sale_date} required />
         <Field name="sale_price" label="Sale price" inputmode="decimal" value={values.sale_price} error={errors.sale_price} unit={market.currency} required />
         <Field
           name="id"
@@ -75,6 +74,7 @@ export function SaleForm(p: SaleFormProps) {
                 value={values[c]}
                 error={errors[c]}
                 unit={unitOf(market, rule.unit)}
+                hint={rule.unit === 'bath' ? 'A half bath counts 0.5.' : undefined}
               />
             );
           })}

@@ -7,7 +7,7 @@ import type { SalesPage, SaleSort, StoredSale } from '../../store/sales-repo.js'
 import { areaLabel, formatMoney, formatNumber } from './format.js';
 import { salesQueryString, type SalesQueryState } from './sales-query.js';
 
-const COLUMNS: { sort?: SaleSort; label: string; num?: boolean; unit?: boolean }[] = [
+const COLUMNS: { sort?: SaleSort; label: string; num?: boolean; unit?: boolean; minor?: boolean }[] = [
   { sort: 'id', label: 'Ref' },
   { sort: 'sale_date', label: 'Sale date' },
   { sort: 'address', label: 'Address' },
@@ -15,8 +15,8 @@ const COLUMNS: { sort?: SaleSort; label: string; num?: boolean; unit?: boolean }
   { sort: 'living_area', label: 'Living area', num: true, unit: true },
   { sort: 'year_built', label: 'Built', num: true },
   { sort: 'rooms', label: 'Rooms', num: true },
-  { label: 'Beds', num: true },
-  { label: 'Baths', num: true },
+  { label: 'Beds', num: true, minor: true },
+  { label: 'Baths', num: true, minor: true },
   { label: 'Status' },
   { label: 'Actions' },
 ];
@@ -35,18 +35,26 @@ export function SaleRow(props: { market: Market; sale: StoredSale }) {
   const c = sale.characteristics;
   return (
     <tr id={`sale-${sale.key}`} class={sale.included ? undefined : 'excluded'}>
-      <td>
+      <td class="nowrap">
         <a href={saleUrl(market, sale)}>{sale.id}</a>
       </td>
       <td class="nowrap">{sale.saleDate}</td>
-      <td>{sale.address}</td>
+      <td class="address">{sale.address}</td>
       <td class="num">{formatMoney(sale.salePrice, market.currency)}</td>
       <td class="num">{formatNumber(c.living_area, 1)}</td>
       <td class="num">{c.year_built ?? ''}</td>
       <td class="num">{c.rooms ?? ''}</td>
-      <td class="num">{c.bedrooms ?? ''}</td>
-      <td class="num">{formatNumber(c.bathrooms, 1)}</td>
-      <td>{sale.included ? 'Included' : <span title={sale.excludedReason}>Excluded: {sale.excludedReason}</span>}</td>
+      <td class="num minor">{c.bedrooms ?? ''}</td>
+      <td class="num minor">{formatNumber(c.bathrooms, 1)}</td>
+      <td class="status">
+        {sale.included ? (
+          'Included'
+        ) : (
+          <>
+            Excluded<span class="reason">{sale.excludedReason}</span>
+          </>
+        )}
+      </td>
       <td class="row-actions nowrap">
         <a href={saleUrl(market, sale, '/edit')}>Edit</a>
         {sale.included ? (
@@ -92,12 +100,13 @@ export function DeletedSaleRow(props: { market: Market; sale: StoredSale; change
 function SortHeader(props: { market: Market; state: SalesQueryState; column: (typeof COLUMNS)[number] }) {
   const { column, state, market } = props;
   const label = column.unit ? `${column.label} (${areaLabel(market.areaUnit)})` : column.label;
-  if (!column.sort) return <th scope="col" class={column.num ? 'num' : undefined}>{label}</th>;
+  const cls = [column.num ? 'num' : '', column.minor ? 'minor' : ''].filter(Boolean).join(' ') || undefined;
+  if (!column.sort) return <th scope="col" class={cls}>{label}</th>;
   const active = state.sort === column.sort;
   const dir = active && state.dir === 'asc' ? 'desc' : active ? 'asc' : column.sort === 'sale_date' ? 'desc' : 'asc';
   const href = `/markets/${market.id}${salesQueryString(state, { sort: column.sort, dir, page: 1 })}`;
   return (
-    <th scope="col" class={column.num ? 'num' : undefined} aria-sort={active ? (state.dir === 'asc' ? 'ascending' : 'descending') : undefined}>
+    <th scope="col" class={cls} aria-sort={active ? (state.dir === 'asc' ? 'ascending' : 'descending') : undefined}>
       <a {...regionLink(href)}>
         {label}
         {active ? (state.dir === 'asc' ? ' ▲' : ' ▼') : ''}

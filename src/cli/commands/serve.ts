@@ -1,0 +1,26 @@
+/**
+ * `compfit serve [--port N] [--host H]`: runs the web app (the same as `npm start`) until
+ * interrupted. Options override PORT and HOST.
+ */
+import { ConfigError, readConfig, startServer } from '../../server.js';
+import { InputError, parseOptions, type Command } from '../cli-io.js';
+
+export const serveCommand: Command = async (args, io) => {
+  const { options, positional } = parseOptions(args, ['port', 'host']);
+  if (positional.length > 0) throw new InputError([`unexpected argument "${positional[0]}"`]);
+  let config;
+  try {
+    config = readConfig({ ...io.env, ...(options.port ? { PORT: options.port } : {}), ...(options.host ? { HOST: options.host } : {}) });
+  } catch (err) {
+    if (err instanceof ConfigError) throw new InputError([err.message.replace(/^PORT/, '--port')]);
+    throw err;
+  }
+  const running = await startServer(config, (line) => io.stderr(`${line}\n`));
+  await new Promise<void>((resolve) => {
+    const stop = () => resolve();
+    process.once('SIGINT', stop);
+    process.once('SIGTERM', stop);
+  });
+  await running.close();
+  return 0;
+};
