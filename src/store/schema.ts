@@ -139,6 +139,8 @@ export const estimates = sqliteTable(
     createdAt: text('created_at').notNull().default(now),
     createdBy: text('created_by').notNull(),
     appVersion: text('app_version').notNull(),
+    /** The market's name, area unit and currency as they were when the estimate was saved. */
+    marketJson: text('market_json').notNull().default('{}'),
     subjectJson: text('subject_json').notNull(),
     modelJson: text('model_json').notNull(),
     salesJson: text('sales_json').notNull(),

@@ -1,0 +1,1 @@
+ALTER TABLE `estimates` ADD `market_json` text DEFAULT '{}' NOT NULL;
