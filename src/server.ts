@@ -73,6 +73,8 @@ export async function startServer(config: Config, log: (line: string) => void = 
           closeDatabase(db);
           resolve();
         });
+        // Idle keep-alive connections would hold close() open.
+        if ('closeAllConnections' in server) server.closeAllConnections();
       }),
   };
 }

@@ -19,7 +19,7 @@ afterEach(() => closeDatabase(t.db));
 const HEADER = 'id,address,sale_date,sale_price,living_area,year_built,rooms';
 const GOOD_ROW = 'A1,1 Low Road,2024-02-01,250000,1500,1990,6';
 
-async function preview(csv: string | Uint8Array, name = 'sales.csv') {
+async function preview(csv: string, name = 'sales.csv') {
   const r = await t.upload(`/markets/${m.id}/import`, name, csv);
   return { status: r.status, html: await r.text() };
 }

@@ -8,7 +8,7 @@ export interface TestApp {
   app: ReturnType<typeof createApp>;
   get: (url: string, headers?: Record<string, string>) => Promise<Response>;
   post: (url: string, fields: Record<string, string>, headers?: Record<string, string>) => Promise<Response>;
-  upload: (url: string, fileName: string, content: string | Uint8Array) => Promise<Response>;
+  upload: (url: string, fileName: string, content: string) => Promise<Response>;
 }
 
 export const HTMX = { 'HX-Request': 'true' };
@@ -19,14 +19,14 @@ export async function testApp(): Promise<TestApp> {
   return {
     db,
     app,
-    get: (url, headers = {}) => app.request(url, { headers }),
-    post: (url, fields, headers = {}) =>
+    get: async (url, headers = {}) => app.request(url, { headers }),
+    post: async (url, fields, headers = {}) =>
       app.request(url, {
         method: 'POST',
         body: new URLSearchParams(fields),
         headers: { 'Content-Type': 'application/x-www-form-urlencoded', ...headers },
       }),
-    upload: (url, fileName, content) => {
+    upload: async (url, fileName, content) => {
       const form = new FormData();
       form.append('file', new File([content], fileName, { type: 'text/csv' }));
       return app.request(url, { method: 'POST', body: form });
