@@ -153,3 +153,8 @@ export interface EstimateResult {
   ranges: Record<string, { min: number; max: number; subject: number }>;
   grid: GridRow[];
 }
+
+/** The fit summary without a subject: everything of the Result but estimate and grid. */
+export type ModelFitSummary = Omit<EstimateResult, 'estimate' | 'grid' | 'ranges'> & {
+  ranges: Record<string, { min: number; max: number }>;
+};

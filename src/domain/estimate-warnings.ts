@@ -14,7 +14,7 @@
  *   large-adjustment: over 15 % net or 25 % gross (§10, a former guideline; a flag only)
  */
 import { isLargeAdjustment, LARGE_GROSS_PERCENT, LARGE_NET_PERCENT } from './adjustment-grid.js';
-import type { EstimateResult, EstimateWarning } from './estimate-result.js';
+import type { EstimateResult, EstimateWarning, ModelFitSummary } from './estimate-result.js';
 import type { ConditionDiagnostics } from '../stats/condition-indices.js';
 
 const fmt = (x: number) => (Math.abs(x) >= 100 || Number.isInteger(x) ? Math.round(x).toLocaleString('en-US') : x.toFixed(2));
@@ -23,11 +23,9 @@ function listIds(ids: string[], max = 8): string {
   return ids.length <= max ? ids.join(', ') : `${ids.slice(0, max).join(', ')} and ${ids.length - max} more`;
 }
 
-export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagnostics): EstimateWarning[] {
+/** Warnings about the subject: outside the sales' ranges, unlike any sale, large adjustments. */
+export function subjectWarnings(r: EstimateResult): EstimateWarning[] {
   const w: EstimateWarning[] = [];
-  const n = r.n;
-  const p = r.predictors.length + 1;
-  const used = r.sales.filter((s) => s.used && s.flags.length > 0);
 
   let outside = 0;
   for (const predictor of r.predictors) {
@@ -42,7 +40,7 @@ export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagn
         subjectValue: subject,
         min,
         max,
-        message: `The subject's ${predictor} (${fmt(subject)}) is ${subject < min ? 'below the smallest' : 'above the largest'} among the sales used (${fmt(min)} to ${fmt(max)}). The estimate extrapolates beyond what the sales support.`,
+        message: `The subject's ${predictor.replace(/_/g, ' ')} (${fmt(subject)}) is ${subject < min ? 'below the smallest' : 'above the largest'} among the sales used (${fmt(min)} to ${fmt(max)}). The estimate extrapolates beyond what the sales support.`,
       });
     }
   }
@@ -57,6 +55,25 @@ export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagn
           ? `Each of the subject's values lies within the range of the sales, but the combination is unlike any sale used: its leverage ${r.estimate.leverage.toFixed(3)} exceeds the largest among the sales (${r.estimate.maxLeverage.toFixed(3)}). The estimate extrapolates.`
           : `The subject's combination of characteristics is also unlike any sale used: its leverage ${r.estimate.leverage.toFixed(3)} exceeds the largest among the sales (${r.estimate.maxLeverage.toFixed(3)}).`,
     });
+
+  const large = r.grid.filter(isLargeAdjustment).map((g) => g.id);
+  if (large.length > 0)
+    w.push({
+      code: 'large-adjustment',
+      severity: 'info',
+      sales: large,
+      message: `${large.length} of ${r.grid.length} sales need adjustments above ${LARGE_NET_PERCENT} % net or ${LARGE_GROSS_PERCENT} % gross (a former lender guideline, a flag and not a rule): prefer more similar sales in the grid.`,
+    });
+
+  return w;
+}
+
+/** Warnings about the model and the sales, whatever the subject. */
+export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnostics): EstimateWarning[] {
+  const w: EstimateWarning[] = [];
+  const n = r.n;
+  const p = r.predictors.length + 1;
+  const used = r.sales.filter((s) => s.used && s.flags.length > 0);
 
   const squaredPair = new Set(['living_area', 'living_area^2']);
   for (const c of r.coefficients) {
@@ -160,15 +177,11 @@ export function estimateWarnings(r: EstimateResult, conditioning: ConditionDiagn
       message: `${leftOut.length} sale${leftOut.length > 1 ? 's were' : ' was'} not used: ${listIds(leftOut.map((s) => `${s.id} (${s.excludedReason})`), 5)}.`,
     });
 
-  const large = r.grid.filter(isLargeAdjustment).map((g) => g.id);
-  if (large.length > 0)
-    w.push({
-      code: 'large-adjustment',
-      severity: 'info',
-      sales: large,
-      message: `${large.length} of ${r.grid.length} sales need adjustments above ${LARGE_NET_PERCENT} % net or ${LARGE_GROSS_PERCENT} % gross (a former lender guideline, a flag and not a rule): prefer more similar sales in the grid.`,
-    });
+  return w;
+}
 
+/** Serious first, then caution, then info; the order within a severity is kept. */
+export function sortWarnings(warnings: EstimateWarning[]): EstimateWarning[] {
   const order = { serious: 0, caution: 1, info: 2 } as const;
-  return w.sort((a, b) => order[a.severity] - order[b.severity]);
+  return warnings.sort((a, b) => order[a.severity] - order[b.severity]);
 }

@@ -3,17 +3,17 @@
  * used, the standardized fit in unit terms, the subject's value and intervals, diagnostics,
  * leave-one-out ratio study, warnings and the adjustment grid. Pure: no I/O, no clock.
  */
-import { conditionDiagnosticsOfFactor } from '../stats/condition-indices.js';
+import { conditionDiagnosticsOfFactor, type ConditionDiagnostics } from '../stats/condition-indices.js';
 import { influenceMeasures } from '../stats/influence.js';
 import { pointIntervals } from '../stats/intervals.js';
 import { pressStatistics } from '../stats/press.js';
 import { ratioStudy } from '../stats/ratio-study.js';
 import { breuschPaganKoenker, jarqueBera } from '../stats/residual-tests.js';
-import { standardizedFit, type Term } from '../stats/standardized-fit.js';
+import { standardizedFit, type StandardizedFit, type Term } from '../stats/standardized-fit.js';
 import { varianceInflationFactors } from '../stats/vif.js';
 import { adjustmentGrid } from './adjustment-grid.js';
-import type { EstimateResult, SaleDiagnostics, SaleFlag } from './estimate-result.js';
-import { estimateWarnings } from './estimate-warnings.js';
+import type { EstimateResult, ModelFitSummary, SaleDiagnostics, SaleFlag } from './estimate-result.js';
+import { modelWarnings, sortWarnings, subjectWarnings } from './estimate-warnings.js';
 import { PREDICTOR_SOURCE, saleValue, subjectValue, type ModelSpec } from './model.js';
 import type { Sale, Subject } from './sale.js';
 
@@ -31,7 +31,7 @@ export class EstimateError extends Error {
  */
 export function selectSales(
   sales: readonly Sale[],
-  subject: Subject,
+  effectiveDate: string,
   model: ModelSpec,
 ): { used: Sale[]; columns: Float64Array[]; leftOut: { sale: Sale; reason: string }[] } {
   const k = model.predictors.length;
@@ -46,7 +46,7 @@ export function selectSales(
     const row = used.length;
     let complete = true;
     for (let j = 0; j < k && complete; j++) {
-      const v = saleValue(model.predictors[j], sale, subject.effectiveDate);
+      const v = saleValue(model.predictors[j], sale, effectiveDate);
       if (v === undefined) complete = false;
       else columns[j][row] = v;
     }
@@ -56,27 +56,36 @@ export function selectSales(
     }
     const missing = new Set<string>();
     for (const predictor of model.predictors)
-      if (saleValue(predictor, sale, subject.effectiveDate) === undefined) missing.add(PREDICTOR_SOURCE[predictor] ?? predictor);
+      if (saleValue(predictor, sale, effectiveDate) === undefined) missing.add(PREDICTOR_SOURCE[predictor] ?? predictor);
     leftOut.push({ sale, reason: `missing ${[...missing].join(', ')}` });
   }
   return { used, columns: columns.map((c) => c.slice(0, used.length)), leftOut };
 }
 
-export function runEstimate(sales: readonly Sale[], subject: Subject, model: ModelSpec): EstimateResult {
+/**
+ * A fitted model without a subject: what the fit summary shows. `effectiveDate` fixes
+ * `months_since_sale` (and nothing else). Internals stay out of the JSON.
+ */
+export interface FittedModel {
+  summary: ModelFitSummary;
+  effectiveDate: string;
+  /** Internals for estimateFor; not serialised. */
+  internals: {
+    fit: StandardizedFit;
+    terms: Term[];
+    prices: Float64Array;
+    usedIds: string[];
+    conditioning: ConditionDiagnostics;
+    smearingFactor: number;
+    maxLeverage: number;
+  };
+}
+
+export function fitModel(sales: readonly Sale[], model: ModelSpec, effectiveDate: string): FittedModel {
   const { predictors, transform, level } = model;
   const k = predictors.length;
   const p = k + 1;
-
-  const subjectValues: number[] = [];
-  const problems: string[] = [];
-  for (const predictor of predictors) {
-    const v = subjectValue(predictor, subject);
-    if (v === undefined) problems.push(`the subject has no ${PREDICTOR_SOURCE[predictor]}, which ${predictor} needs: enter it or drop ${predictor} from the model`);
-    else subjectValues.push(v);
-  }
-  if (problems.length > 0) throw new EstimateError(problems);
-
-  const { used, columns, leftOut } = selectSales(sales, subject, model);
+  const { used, columns, leftOut } = selectSales(sales, effectiveDate, model);
   const n = used.length;
   if (n <= p)
     throw new EstimateError([
@@ -102,7 +111,7 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
   for (let i = 0; i < n; i++) prices[i] = used[i].salePrice;
   const y = transform === 'log' ? prices.map(Math.log) : prices;
 
-  let fit;
+  let fit: StandardizedFit;
   try {
     fit = standardizedFit(terms, y);
   } catch (err) {
@@ -115,11 +124,6 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
   }
   const ls = fit.regression.ls;
   const sigma = ls.sigma;
-  const df = ls.dfResidual;
-
-  // Subject: ŷ₀, h₀ and both intervals on the model's scale, then back to price units.
-  const at = fit.predictAt(subjectValues);
-  const iv = pointIntervals(at.fit, sigma, at.leverage, df, level);
   const smearingFactor = transform === 'log' ? ls.residuals.reduce((s, e) => s + Math.exp(e), 0) / n : 1;
   const back = (v: number) => (transform === 'log' ? Math.exp(v) : v);
   const maxLeverage = ls.hatValues.reduce((a, b) => Math.max(a, b), 0);
@@ -141,7 +145,6 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
     Float64Array.from(looIdx, (i) => looPrediction[i]),
     Float64Array.from(looIdx, (i) => prices[i]),
   );
-
   const leverageCut = (2 * p) / n;
   const cooksCut = 4 / n;
   const saleRows: SaleDiagnostics[] = new Array(n);
@@ -198,18 +201,8 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
     standardized: c.standardized,
     vif: vif[j],
   }));
-  const unit = coefficients.slice(1).map((c) => c.estimate);
-  const grid = adjustmentGrid(
-    predictors,
-    unit,
-    subjectValues,
-    used.map((u) => u.id),
-    prices,
-    terms.map((t) => t.values),
-    transform,
-  );
 
-  const ranges: EstimateResult['ranges'] = {};
+  const ranges: ModelFitSummary['ranges'] = {};
   predictors.forEach((name, j) => {
     const v = terms[j].values;
     let min = v[0];
@@ -218,11 +211,10 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
       if (v[i] < min) min = v[i];
       else if (v[i] > max) max = v[i];
     }
-    ranges[name] = { min, max, subject: subjectValues[j] };
+    ranges[name] = { min, max };
   });
 
-  const residualTests = { breuschPagan: breuschPaganKoenker(ls), jarqueBera: jarqueBera(ls.residuals) };
-  const result: EstimateResult = {
+  const summary: ModelFitSummary = {
     n,
     predictors: [...predictors],
     transform,
@@ -234,22 +226,9 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
       sigma,
       fStatistic: fit.regression.fStatistic,
       fPValue: fit.regression.fPValue,
-      dfResidual: df,
+      dfResidual: ls.dfResidual,
       conditionNumber: conditioning.conditionNumber,
       conditionIndices: conditioning.indices,
-    },
-    estimate: {
-      value: back(at.fit) * smearingFactor,
-      fit: at.fit,
-      fitStdError: iv.fitStdError,
-      predictionStdError: iv.predictionStdError,
-      leverage: at.leverage,
-      maxLeverage,
-      confidence: [back(iv.confidence[0]), back(iv.confidence[1])],
-      prediction: [back(iv.prediction[0]), back(iv.prediction[1])],
-      median: back(at.fit),
-      smearingFactor,
-      predictorValues: Object.fromEntries(predictors.map((name, j) => [name, subjectValues[j]])),
     },
     warnings: [],
     sales: saleRows,
@@ -264,12 +243,76 @@ export function runEstimate(sales: readonly Sale[], subject: Subject, model: Mod
       prb: ratios.prb,
       count: ratios.count,
     },
-    residualTests,
+    residualTests: { breuschPagan: breuschPaganKoenker(ls), jarqueBera: jarqueBera(ls.residuals) },
+    ranges,
+  };
+  summary.warnings = modelWarnings(summary, conditioning);
+  return {
+    summary,
+    effectiveDate,
+    internals: { fit, terms, prices, usedIds: used.map((u) => u.id), conditioning, smearingFactor, maxLeverage },
+  };
+}
+
+/** The subject's estimate from a fitted model: value, intervals, range checks, grid, warnings. */
+export function estimateFor(fitted: FittedModel, subject: Subject): EstimateResult {
+  const { summary, internals } = fitted;
+  const { predictors, transform, level } = summary;
+  if (subject.effectiveDate !== fitted.effectiveDate && predictors.includes('months_since_sale'))
+    throw new RangeError('estimateFor: the model was fitted for another effective date');
+  const subjectValues: number[] = [];
+  const problems: string[] = [];
+  for (const predictor of predictors) {
+    const v = subjectValue(predictor, subject);
+    if (v === undefined) problems.push(`the subject has no ${PREDICTOR_SOURCE[predictor]}, which ${predictor} needs: enter it or drop ${predictor} from the model`);
+    else subjectValues.push(v);
+  }
+  if (problems.length > 0) throw new EstimateError(problems);
+
+  const { fit, smearingFactor, maxLeverage } = internals;
+  const back = (v: number) => (transform === 'log' ? Math.exp(v) : v);
+  // Subject: ŷ₀, h₀ and both intervals on the model's scale, then back to price units.
+  const at = fit.predictAt(subjectValues);
+  const iv = pointIntervals(at.fit, summary.fit.sigma, at.leverage, summary.fit.dfResidual, level);
+  const grid = adjustmentGrid(
+    predictors,
+    summary.coefficients.slice(1).map((c) => c.estimate),
+    subjectValues,
+    internals.usedIds,
+    internals.prices,
+    internals.terms.map((t) => t.values),
+    transform,
+  );
+  const ranges: EstimateResult['ranges'] = {};
+  predictors.forEach((name, j) => (ranges[name] = { ...summary.ranges[name], subject: subjectValues[j] }));
+  const result: EstimateResult = {
+    ...summary,
+    estimate: {
+      value: back(at.fit) * smearingFactor,
+      fit: at.fit,
+      fitStdError: iv.fitStdError,
+      predictionStdError: iv.predictionStdError,
+      leverage: at.leverage,
+      maxLeverage,
+      confidence: [back(iv.confidence[0]), back(iv.confidence[1])],
+      prediction: [back(iv.prediction[0]), back(iv.prediction[1])],
+      median: back(at.fit),
+      smearingFactor,
+      predictorValues: Object.fromEntries(predictors.map((name, j) => [name, subjectValues[j]])),
+    },
     ranges,
     grid,
   };
-  result.warnings = estimateWarnings(result, conditioning);
+  result.warnings = sortWarnings([...subjectWarnings(result), ...summary.warnings]);
   return result;
+}
+
+/** Sales + subject + model → the whole Result JSON. */
+export function runEstimate(sales: readonly Sale[], subject: Subject, model: ModelSpec): EstimateResult {
+  for (const predictor of model.predictors)
+    if (subjectValue(predictor, subject) === undefined)
+      throw new EstimateError([`the subject has no ${PREDICTOR_SOURCE[predictor]}, which ${predictor} needs: enter it or drop ${predictor} from the model`]);
+  return estimateFor(fitModel(sales, model, subject.effectiveDate), subject);
 }
 
 const NO_FLAGS: SaleFlag[] = Object.freeze([]) as unknown as SaleFlag[];
