@@ -1,0 +1,43 @@
+/**
+ * Number, money, area and time formatting shared by the pages and the worksheet, so every
+ * place that shows a figure shows it the same way. Pure: no I/O, no clock.
+ */
+import type { AreaUnitCode } from './saved-estimate.js';
+
+const LOCALE = 'en-US';
+
+/** How each area unit is written beside a number. */
+export const AREA_UNIT_LABEL: Record<AreaUnitCode, string> = { sqft: 'sq ft', m2: 'm²' };
+
+export function formatMoney(amount: number, currency: string): string {
+  const whole = Number.isInteger(amount);
+  return new Intl.NumberFormat(LOCALE, {
+    style: 'currency',
+    currency,
+    minimumFractionDigits: whole ? 0 : 2,
+    maximumFractionDigits: whole ? 0 : 2,
+  }).format(amount);
+}
+
+/** The symbol (or code) of a currency, for the label beside a price input. */
+export function currencySymbol(currency: string): string {
+  const part = new Intl.NumberFormat(LOCALE, { style: 'currency', currency }).formatToParts(0).find((p) => p.type === 'currency');
+  return part?.value ?? currency;
+}
+
+export function formatNumber(n: number | undefined, maximumFractionDigits = 2): string {
+  return n === undefined ? '' : new Intl.NumberFormat(LOCALE, { maximumFractionDigits }).format(n);
+}
+
+export function areaLabel(unit: string): string {
+  return AREA_UNIT_LABEL[unit as AreaUnitCode] ?? unit;
+}
+
+export function formatArea(n: number | undefined, unit: string): string {
+  return n === undefined ? '' : `${formatNumber(n, 1)} ${areaLabel(unit)}`;
+}
+
+/** An ISO timestamp as `2024-05-01 14:03 UTC`: unambiguous and the same for every reader. */
+export function formatTime(iso: string): string {
+  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+}
