@@ -35,6 +35,7 @@ export function MarketForm(p: MarketFormProps) {
             </option>
           </select>
         </div>
+        {p.market ? <p class="hint">Changing the unit relabels the areas already recorded; it does not convert them.</p> : null}
         {p.errors.area_unit ? (
           <p class="error" id="f-area_unit-error">
             {p.errors.area_unit}

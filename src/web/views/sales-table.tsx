@@ -55,26 +55,28 @@ export function SaleRow(props: { market: Market; sale: StoredSale }) {
           </>
         )}
       </td>
-      <td class="row-actions nowrap">
-        <a href={saleUrl(market, sale, '/edit')}>Edit</a>
-        {sale.included ? (
-          <a href={saleUrl(market, sale, '/exclude')}>Exclude</a>
-        ) : (
-          <form method="post" action={saleUrl(market, sale, '/include')} hx-post={saleUrl(market, sale, '/include')} hx-target="closest tr" hx-swap="outerHTML">
-            <button type="submit" class="link">
-              Include
-            </button>
-          </form>
-        )}
-        <a
-          href={saleUrl(market, sale, '/delete')}
-          hx-post={saleUrl(market, sale, '/delete')}
-          hx-confirm={`Delete sale ${sale.id} at ${sale.address}? You can undo this right after.`}
-          hx-target="closest tr"
-          hx-swap="outerHTML"
-        >
-          Delete
-        </a>
+      <td class="nowrap">
+        <div class="row-actions">
+          <a href={saleUrl(market, sale, '/edit')}>Edit</a>
+          {sale.included ? (
+            <a href={saleUrl(market, sale, '/exclude')}>Exclude</a>
+          ) : (
+            <form method="post" action={saleUrl(market, sale, '/include')} hx-post={saleUrl(market, sale, '/include')} hx-target="closest tr" hx-swap="outerHTML">
+              <button type="submit" class="link">
+                Include
+              </button>
+            </form>
+          )}
+          <a
+            href={saleUrl(market, sale, '/delete')}
+            hx-post={saleUrl(market, sale, '/delete')}
+            hx-confirm={`Delete sale ${sale.id} at ${sale.address}? You can undo this right after.`}
+            hx-target="closest tr"
+            hx-swap="outerHTML"
+          >
+            Delete
+          </a>
+        </div>
       </td>
     </tr>
   );
