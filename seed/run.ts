@@ -4,7 +4,7 @@
  */
 import { openConfiguredDatabase, readConfig } from '../src/server.js';
 import { closeDatabase } from '../src/store/database.js';
-import { installDemoMarket } from './load-demo.js';
+import { installDemoMarket } from '../src/store/demo-market.js';
 
 const db = await openConfiguredDatabase(readConfig(process.env));
 try {

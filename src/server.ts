@@ -8,6 +8,7 @@ import { serve, type ServerType } from '@hono/node-server';
 import { pathToFileURL } from 'node:url';
 import { createApp } from './app.js';
 import { closeDatabase, openDatabase, type Database } from './store/database.js';
+import { seedDemoIfEmpty } from './store/demo-market.js';
 import { migrateDatabase } from './store/migrate.js';
 
 export interface Config {
@@ -53,8 +54,6 @@ export interface RunningServer {
 /** Starts the app; `seedDemo` puts the demo market into a database that has no market yet. */
 export async function startServer(config: Config, log: (line: string) => void = console.log): Promise<RunningServer> {
   const db = await openConfiguredDatabase(config);
-  // The demo lives in seed/ beside src/; it is loaded only here, at the very top.
-  const { seedDemoIfEmpty } = await import('../seed/load-demo.js');
   if (await seedDemoIfEmpty(db)) log('compfit: empty database, added the demo market');
   const app = createApp({ db });
   const server = await new Promise<ServerType>((resolve) => {

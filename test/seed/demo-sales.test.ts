@@ -5,7 +5,9 @@ import { closeDatabase } from '../../src/store/database.js';
 import { listMarkets } from '../../src/store/markets-repo.js';
 import { allSales } from '../../src/store/sales-repo.js';
 import { generateDemoSales, modelPrice, mulberry32 } from '../../seed/demo-sales.js';
-import { installDemoMarket, seedDemoIfEmpty } from '../../seed/load-demo.js';
+import { readFileSync } from 'node:fs';
+import { DEMO_FOLDER, installDemoMarket, readDemoMarket, seedDemoIfEmpty } from '../../src/store/demo-market.js';
+import { demoMarketJson, demoSalesCsv } from '../../seed/write-demo-files.js';
 import subject from '../../seed/demo-subject.json' with { type: 'json' };
 import outside from '../../seed/demo-subject-outside.json' with { type: 'json' };
 import { testDatabase } from '../store/test-database.js';
@@ -63,6 +65,14 @@ describe('demo sales', () => {
       expect((subject as Record<string, number | string>)[c]).toBeGreaterThanOrEqual(lo);
       expect((subject as Record<string, number | string>)[c]).toBeLessThanOrEqual(hi);
     }
+  });
+});
+
+describe('the demo files', () => {
+  it('are what the generator writes (run seed/write-demo-files.ts after changing it)', () => {
+    expect(readFileSync(`${DEMO_FOLDER}/demo-sales.csv`, 'utf8')).toBe(demoSalesCsv());
+    expect(readFileSync(`${DEMO_FOLDER}/demo-market.json`, 'utf8')).toBe(demoMarketJson());
+    expect(readDemoMarket().sales).toEqual(generateDemoSales());
   });
 });
 
