@@ -7,6 +7,7 @@ import type { Database } from './store/database.js';
 import type { AppEnv } from './web/app-env.js';
 import { handleError, handleNotFound } from './web/middleware/error-handler.js';
 import { apiRoutes } from './web/routes/api.js';
+import { estimateApiRoutes, marketEstimateRoutes, savedEstimateRoutes } from './web/routes/estimates.js';
 import { importRoutes } from './web/routes/imports.js';
 import { marketsRoutes } from './web/routes/markets.js';
 import { salesRoutes } from './web/routes/sales.js';
@@ -34,6 +35,9 @@ export function createApp(deps: { db: Database }): Hono<AppEnv> {
   app.get('/', (c) => c.redirect('/markets'));
   app.route('/static', staticRoutes());
   app.route('/api', apiRoutes(deps));
+  app.route('/api', estimateApiRoutes(deps));
+  app.route('/estimates', savedEstimateRoutes(deps));
+  app.route('/markets/:marketId', marketEstimateRoutes(deps));
   app.route('/markets/:marketId/sales', salesRoutes(deps));
   app.route('/markets/:marketId/import', importRoutes(deps));
   app.route('/markets', marketsRoutes(deps));

@@ -17,6 +17,9 @@ import { isLargeAdjustment, LARGE_GROSS_PERCENT, LARGE_NET_PERCENT } from './adj
 import type { EstimateResult, EstimateWarning, ModelFitSummary } from './estimate-result.js';
 import type { ConditionDiagnostics } from '../stats/condition-indices.js';
 
+/** A p value in words: tiny ones as an upper bound, not as 0. */
+const fmtP = (p: number) => (p < 0.0001 ? '< 0.0001' : `= ${p.toPrecision(2)}`);
+
 const fmt = (x: number) => (Math.abs(x) >= 100 || Number.isInteger(x) ? Math.round(x).toLocaleString('en-US') : x.toFixed(2));
 
 function listIds(ids: string[], max = 8): string {
@@ -156,7 +159,7 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
       severity: 'caution',
       statistic: bp.statistic,
       p: bp.p,
-      message: `The spread of residuals changes with the predictors (Breusch–Pagan, Koenker form: ${bp.statistic.toFixed(2)}, p = ${bp.p.toPrecision(2)}), so the interval is too narrow for some properties and too wide for others${r.transform === 'none' ? '; a log price model may help' : ''}.`,
+      message: `The spread of residuals changes with the predictors (Breusch–Pagan, Koenker form: ${bp.statistic.toFixed(2)}, p ${fmtP(bp.p)}), so the interval is too narrow for some properties and too wide for others${r.transform === 'none' ? '; a log price model may help' : ''}.`,
     });
   const jb = r.residualTests.jarqueBera;
   if (jb.p < 0.05)
@@ -165,7 +168,7 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
       severity: n < 30 ? 'info' : 'caution',
       statistic: jb.statistic,
       p: jb.p,
-      message: `Residuals do not look normal (Jarque–Bera ${jb.statistic.toFixed(2)}, p = ${jb.p.toPrecision(2)})${n < 30 ? '; with so few sales this test is only advisory' : ''}: the prediction interval's coverage is approximate.`,
+      message: `Residuals do not look normal (Jarque–Bera ${jb.statistic.toFixed(2)}, p ${fmtP(jb.p)})${n < 30 ? '; with so few sales this test is only advisory' : ''}: the prediction interval's coverage is approximate.`,
     });
 
   const leftOut = r.sales.filter((s) => !s.used);

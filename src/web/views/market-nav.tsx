@@ -13,6 +13,8 @@ export interface MarketSection {
 
 export const MARKET_SECTIONS: MarketSection[] = [
   { key: 'sales', label: 'Sales', href: (id) => `/markets/${id}` },
+  { key: 'estimate', label: 'Estimate', href: (id) => `/markets/${id}/estimate` },
+  { key: 'estimates', label: 'Saved estimates', href: (id) => `/markets/${id}/estimates` },
   { key: 'add', label: 'Add a sale', href: (id) => `/markets/${id}/sales/new` },
   { key: 'import', label: 'Import CSV', href: (id) => `/markets/${id}/import` },
   { key: 'export', label: 'Export CSV', href: (id) => `/markets/${id}/sales.csv` },

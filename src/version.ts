@@ -1,0 +1,4 @@
+/** The app version written into every saved estimate and worksheet: package.json's. */
+import { readFileSync } from 'node:fs';
+
+export const APP_VERSION: string = (JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string }).version;
