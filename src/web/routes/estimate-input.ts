@@ -57,15 +57,13 @@ export function readEstimateInput(params: URLSearchParams | Record<string, strin
     const json: Record<string, string> = {};
     for (const [k, v] of Object.entries(subjectFields)) if (v !== '') json[k] = v;
     const parsed = parseSubject(json);
-    if (!parsed.ok) subjectErrors = parsed.errors;
-    else {
-      for (const p of model.predictors) {
-        const source = PREDICTOR_SOURCE[p];
-        if (source && parsed.value.characteristics[source] === undefined)
-          subjectErrors[source] = `${source.replace(/_/g, ' ')} is needed by the model (${p})`;
-      }
-      if (Object.keys(subjectErrors).length === 0) subject = parsed.value;
+    subjectErrors = parsed.ok ? {} : { ...parsed.errors };
+    for (const p of model.predictors) {
+      const source = PREDICTOR_SOURCE[p];
+      if (source && subjectFields[source] === '' && !subjectErrors[source])
+        subjectErrors[source] = `${source.replace(/_/g, ' ')} is needed by the model (${p})`;
     }
+    if (parsed.ok && Object.keys(subjectErrors).length === 0) subject = parsed.value;
   }
   return { model, modelErrors, subjectFields, subject, subjectErrors, gridSize, wantsEstimate };
 }
