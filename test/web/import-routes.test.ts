@@ -6,6 +6,7 @@ import { allSales } from '../../src/store/sales-repo.js';
 import { toDomainSale } from '../../src/store/sale-columns.js';
 import { generateDemoSales } from '../../seed/demo-sales.js';
 import { writeSalesCsv } from '../../src/domain/sales-csv.js';
+import { createApp } from '../../src/app.js';
 import { testApp, testMarket, textOf, type TestApp } from './test-app.js';
 
 let t: TestApp;
@@ -54,6 +55,24 @@ describe('CSV import', () => {
 
   // Each case: a good first row (row 1) and the bad row (row 2), or a whole file for header problems.
   const GOOD_FIRST = GOOD_ROW.replace('A1', 'A0');
+  it('a commit on another app instance (or after a restart) reads the stored file again', async () => {
+    const p = await preview(`${HEADER}\n${GOOD_ROW}\nA2,3 Low Road,2024-03-01,260000,1600,1992,6\n`);
+    const url = /action="(\/markets\/\d+\/import\/\d+\/commit)"/.exec(p.html)![1];
+    const other = createApp({ db: t.db });
+    const r = await other.request(url, { method: 'POST' });
+    expect(r.status).toBe(303);
+    expect((await allSales(t.db, m.id)).map((s) => s.id)).toEqual(['A1', 'A2']);
+  });
+
+  it('a commit refuses references taken since the preview, and writes nothing', async () => {
+    const p = await preview(`${HEADER}\n${GOOD_ROW}\nA2,3 Low Road,2024-03-01,260000,1600,1992,6\n`);
+    await t.post(`/markets/${m.id}/sales`, { id: 'A2', address: 'x', sale_date: '2024-01-01', sale_price: '1' });
+    const r = await commitFrom(p.html);
+    expect(r.status).toBe(422);
+    expect(textOf(await r.text())).toMatch(/2\s*id\s*A2\s*id "A2" is already used by a sale in this market/);
+    expect((await allSales(t.db, m.id)).map((s) => s.id)).toEqual(['A2']);
+  });
+
   const matrix: [string, string, RegExp][] = [
     ['negative price', `${HEADER}\n${GOOD_FIRST}\nA1,1 Low Road,2024-02-01,-250000,1500,1990,6`, /2\s*sale_price\s*-250000\s*sale_price must be greater than 0/],
     ['zero area', `${HEADER}\n${GOOD_FIRST}\nA1,1 Low Road,2024-02-01,250000,0,1990,6`, /2\s*living_area\s*0\s*living_area must be greater than 0, got "0"/],
