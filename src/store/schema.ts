@@ -19,6 +19,12 @@ export const markets = sqliteTable(
     /** ISO 4217 code, e.g. USD. */
     currency: text('currency').notNull().default('USD'),
     notes: text('notes'),
+    /**
+     * Bumped by database triggers on every insert, update or delete of the market's sales
+     * (db/migrations/0003_sales_revision_triggers.sql), so any app process can tell in one
+     * cheap read whether its cached fit of these sales is still current.
+     */
+    salesRevision: integer('sales_revision').notNull().default(0),
     createdAt: text('created_at').notNull().default(now),
     updatedAt: text('updated_at').notNull().default(now),
   },

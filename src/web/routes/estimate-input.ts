@@ -22,6 +22,8 @@ export interface EstimateInput {
   gridSize: number;
   /** True when the user asked for an estimate (pressed the estimate button or sent subject fields). */
   wantsEstimate: boolean;
+  /** Show every sale in the diagnostics table, not only the flagged and the largest residuals. */
+  allDiagnostics: boolean;
 }
 
 export const SUBJECT_FIELDS = ['address', 'effective_date', ...CHARACTERISTICS] as const;
@@ -65,7 +67,7 @@ export function readEstimateInput(params: URLSearchParams | Record<string, strin
     }
     if (parsed.ok && Object.keys(subjectErrors).length === 0) subject = parsed.value;
   }
-  return { model, modelErrors, subjectFields, subject, subjectErrors, gridSize, wantsEstimate };
+  return { model, modelErrors, subjectFields, subject, subjectErrors, gridSize, wantsEstimate, allDiagnostics: one('diagnostics') === 'all' };
 }
 
 /** The query string that reproduces a model and subject (links, "back" after leaving a sale out). */

@@ -200,6 +200,7 @@ export function EstimateWork(props: EstimateWorkProps) {
             sales={props.sales}
             ctx={ctx}
             leaveOut={{ action: `/markets/${market.id}/estimate/leave-out`, back: `${action}?${props.query}` }}
+            {...(input.allDiagnostics ? {} : { limit: { others: 20, allHref: `${action}?${props.query}&diagnostics=all` } })}
           />
         ) : null}
       </div>

@@ -300,18 +300,30 @@ export function SalesDiagnostics(props: {
   ctx: MoneyContext;
   /** Where the leave-out form posts, and the page to come back to; absent on a saved estimate. */
   leaveOut?: { action: string; back: string };
+  /** Unflagged sales shown besides the flagged ones (largest studentized residuals first), with a link to all. */
+  limit?: { others: number; allHref: string };
 }) {
   const { result: r, ctx } = props;
   const used = r.sales.filter((s) => s.used);
   const flagged = used.filter((s) => s.flags.length > 0);
-  const rows = [...flagged, ...used.filter((s) => s.flags.length === 0)];
+  const others = used.filter((s) => s.flags.length === 0);
+  const shownOthers = props.limit
+    ? [...others].sort((a, b) => Math.abs(b.studentized ?? 0) - Math.abs(a.studentized ?? 0)).slice(0, props.limit.others)
+    : others;
+  const rows = [...flagged, ...shownOthers];
   const fmt = (x: number) => money(x, ctx.currency);
   return (
     <section class="diagnostics" aria-label="Sales diagnostics">
       <h2>Sales diagnostics</h2>
       <p class="lead">
         {flagged.length} of {used.length} sales flagged (leverage above 2p/n, studentized residual beyond ±3, Cook's distance above 4/n). Flagged
-        sales come first.
+        sales come first{shownOthers.length < others.length ? `, then the ${shownOthers.length} others with the largest studentized residuals` : ''}.
+        {props.limit && shownOthers.length < others.length ? (
+          <>
+            {' '}
+            <a href={props.limit.allHref}>Show all {used.length} sales</a>
+          </>
+        ) : null}
       </p>
       <div class="table-scroll">
         <table class="data diagnostics-table">

@@ -1,0 +1,1 @@
+ALTER TABLE `markets` ADD `sales_revision` integer DEFAULT 0 NOT NULL;
