@@ -19,14 +19,15 @@ const LOCALE = 'en-US';
 const EMPTY: Cell = { text: '' };
 
 const moneyFormats = new Map<string, Intl.NumberFormat>();
-function moneyFormat(currency: string, decimals: number, signed: boolean): Intl.NumberFormat {
-  const key = `${currency}|${decimals}|${signed}`;
+/** `decimals` at most; trailing zeros are dropped only for rates (`trim`), never for prices. */
+function moneyFormat(currency: string, decimals: number, signed: boolean, trim = false): Intl.NumberFormat {
+  const key = `${currency}|${decimals}|${signed}|${trim}`;
   let f = moneyFormats.get(key);
   if (!f) {
     f = new Intl.NumberFormat(LOCALE, {
       style: 'currency',
       currency,
-      minimumFractionDigits: decimals,
+      minimumFractionDigits: trim ? 0 : decimals,
       maximumFractionDigits: decimals,
       ...(signed ? { signDisplay: 'exceptZero' as const } : {}),
     });
@@ -76,12 +77,12 @@ export function significantDecimals(x: number, digits = 4, max = 8): number {
   return Math.max(0, Math.min(max, digits - 1 - Math.floor(Math.log10(Math.abs(x)))));
 }
 
-/** A money rate (a per-unit coefficient, its standard error): four significant digits, `$112.4`. */
+/** A money rate (a per-unit coefficient, its standard error): four significant digits, `$112.4`, `-$606`. */
 export function moneyRateCell(x: number | null | undefined, currency: string): Cell {
   if (!usable(x)) return EMPTY;
   const d = significantDecimals(x, 4, 6);
   const v = roundTo(x, d);
-  return { text: moneyFormat(currency, d, false).format(v), value: v, unit: currency };
+  return { text: moneyFormat(currency, d, false, true).format(v), value: v, unit: currency };
 }
 
 /** A plain number with a fixed number of decimals: `0.8123`. */

@@ -160,9 +160,12 @@ function drawPageFurniture(doc: Doc, c: PdfCursor, ws: Worksheet): void {
     const pageText = `Page ${i + 1} of ${total}`;
     c.use(FONT.bold, SIZE.small + 0.5);
     const pageWidth = doc.widthOfString(pageText);
-    c.line(pageText, c.left + c.width - pageWidth, footerTop, pageWidth);
     c.use(FONT.regular, SIZE.small, COLOR.muted);
-    c.lines(c.clean(ws.caution.line), c.width - pageWidth - 16).forEach((l, k) => c.line(l, c.left, footerTop + k * SIZE.small * 1.3, c.width));
+    const lines = c.lines(c.clean(ws.caution.line), c.width - pageWidth - 16);
+    lines.forEach((l, k) => c.line(l, c.left, footerTop + k * SIZE.small * 1.3, c.width));
+    // On the caution's last line, so text extraction reads the caution whole, then the page.
+    c.use(FONT.bold, SIZE.small + 0.5);
+    c.line(pageText, c.left + c.width - pageWidth, footerTop + (lines.length - 1) * SIZE.small * 1.3 - 0.5, pageWidth);
     if (i > 0) {
       c.use(FONT.regular, SIZE.small, COLOR.muted);
       c.line(c.clean(`${ws.title} · ${ws.subjectAddress} · estimate ${ws.estimateId}`), c.left, PAGE.top - 20, c.width);
