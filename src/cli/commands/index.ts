@@ -8,3 +8,4 @@ registerCommand('import', 'import --market NAME FILE.csv [--create [--area-unit 
 registerCommand('export', 'export --market NAME [--output FILE.csv]', async () => (await import('./export.js')).exportCommand);
 registerCommand('serve', 'serve [--port 3000] [--host 127.0.0.1]', async () => (await import('./serve.js')).serveCommand);
 registerCommand('seed', 'seed   (rebuild the demo market)', async () => (await import('./seed.js')).seedCommand);
+registerCommand('worksheet', 'worksheet --estimate ID --out FILE.pdf|FILE.csv', async () => (await import('./worksheet.js')).worksheetCommand);
