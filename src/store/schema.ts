@@ -104,7 +104,10 @@ export const saleChanges = sqliteTable(
   (t) => [index('sale_changes_sale_idx').on(t.saleId, t.id)],
 );
 
-/** People who sign in (authentication comes with a later issue). */
+/**
+ * People who sign in. `password_hash` is `scrypt$N$r$p$<base64 key>` (the scrypt cost
+ * parameters travel with the hash, so they can be raised later); `salt` is random per user.
+ */
 export const users = sqliteTable(
   'users',
   {
@@ -129,6 +132,23 @@ export const sessions = sqliteTable(
     expiresAt: text('expires_at').notNull(),
   },
   (t) => [index('sessions_user_idx').on(t.userId)],
+);
+
+/**
+ * Sign-in attempts, for rate limiting per account and per address across every app
+ * process that shares the database. Old rows are pruned as new ones are written.
+ */
+export const signInAttempts = sqliteTable(
+  'sign_in_attempts',
+  {
+    id: integer('id').primaryKey(),
+    at: text('at').notNull(),
+    /** The name as tried, lower-cased (it need not be a user). */
+    userName: text('user_name').notNull(),
+    address: text('address').notNull(),
+    succeeded: integer('succeeded', { mode: 'boolean' }).notNull(),
+  },
+  (t) => [index('sign_in_attempts_user_idx').on(t.userName, t.at), index('sign_in_attempts_address_idx').on(t.address, t.at)],
 );
 
 /**
@@ -162,4 +182,5 @@ export type SaleChangeRow = typeof saleChanges.$inferSelect;
 export type ImportBatchRow = typeof importBatches.$inferSelect;
 export type UserRow = typeof users.$inferSelect;
 export type SessionRow = typeof sessions.$inferSelect;
+export type SignInAttemptRow = typeof signInAttempts.$inferSelect;
 export type EstimateRow = typeof estimates.$inferSelect;
