@@ -22,6 +22,10 @@ const fmtP = (p: number) => (p < 0.0001 ? '< 0.0001' : `= ${p.toPrecision(2)}`);
 
 const fmt = (x: number) => (Math.abs(x) >= 100 || Number.isInteger(x) ? Math.round(x).toLocaleString('en-US') : x.toFixed(2));
 
+/** Warnings carry at most this many sale ids (with the full count); every sale's flags are in `sales`. */
+const MAX_IDS = 100;
+const capped = <T,>(ids: T[]) => (ids.length > MAX_IDS ? ids.slice(0, MAX_IDS) : ids);
+
 function listIds(ids: string[], max = 8): string {
   return ids.length <= max ? ids.join(', ') : `${ids.slice(0, max).join(', ')} and ${ids.length - max} more`;
 }
@@ -64,7 +68,8 @@ export function subjectWarnings(r: EstimateResult): EstimateWarning[] {
     w.push({
       code: 'large-adjustment',
       severity: 'info',
-      sales: large,
+      sales: capped(large),
+      count: large.length,
       message: `${large.length} of ${r.grid.length} sales need adjustments above ${LARGE_NET_PERCENT} % net or ${LARGE_GROSS_PERCENT} % gross (a former lender guideline, a flag and not a rule): prefer more similar sales in the grid.`,
     });
 
@@ -127,7 +132,8 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
     w.push({
       code: 'outlier-sale',
       severity: 'caution',
-      sales: outliers,
+      sales: capped(outliers),
+      count: outliers.length,
       message: `Sale${outliers.length > 1 ? 's' : ''} ${listIds(outliers)} ${outliers.length > 1 ? 'are' : 'is'} far from the fitted prices (studentized residual beyond ±3): verify ${outliers.length > 1 ? 'them' : 'it'}.`,
     });
   const influential = used.filter((s) => s.flags.includes('influential')).map((s) => s.id);
@@ -136,7 +142,8 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
     w.push({
       code: 'influential-sale',
       severity: strong.length > 0 ? 'serious' : 'caution',
-      sales: influential,
+      sales: capped(influential),
+      count: influential.length,
       message:
         strong.length > 0
           ? `Sale${strong.length > 1 ? 's' : ''} ${listIds(strong)} alone move${strong.length > 1 ? '' : 's'} the fit (Cook's distance above 1); ${influential.length} sale(s) in all exceed 4/n.`
@@ -148,7 +155,8 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
     w.push({
       code: 'high-leverage-sale',
       severity: 'info',
-      sales: leveraged,
+      sales: capped(leveraged),
+      count: leveraged.length,
       message: `Sale${leveraged.length > 1 ? 's' : ''} ${listIds(leveraged)} ${leveraged.length > 1 ? 'have' : 'has'} unusual characteristics (leverage above 2p/n = ${((2 * p) / n).toFixed(3)}).`,
     });
 
@@ -176,7 +184,8 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
     w.push({
       code: 'sales-left-out',
       severity: 'info',
-      sales: leftOut.map((s) => ({ id: s.id, reason: s.excludedReason })),
+      sales: capped(leftOut.map((s) => ({ id: s.id, reason: s.excludedReason }))),
+      count: leftOut.length,
       message: `${leftOut.length} sale${leftOut.length > 1 ? 's were' : ' was'} not used: ${listIds(leftOut.map((s) => `${s.id} (${s.excludedReason})`), 5)}.`,
     });
 

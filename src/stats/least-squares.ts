@@ -157,10 +157,17 @@ export function leastSquaresColumns(
     }
     return h;
   };
+  // hᵢᵢ = Σₖ (X_s W)ᵢₖ²: build each column of X_s W by axpy over the columns (fast, contiguous).
   const hatValues = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < p; j++) v[j] = scaled[j][i];
-    hatValues[i] = leverageOfScaledRow();
+  const q = new Float64Array(n);
+  for (let k = 0; k < p; k++) {
+    q.fill(0);
+    for (let j = 0; j <= k; j++) {
+      const c = scaled[j];
+      const wjk = w[j][k];
+      for (let i = 0; i < n; i++) q[i] += c[i] * wjk;
+    }
+    for (let i = 0; i < n; i++) hatValues[i] += q[i] * q[i];
   }
 
   const scaledCovariance = w.map((_, a) =>
