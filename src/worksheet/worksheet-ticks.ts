@@ -11,34 +11,40 @@ import type { ChartView, IntervalView } from './worksheet-model.js';
 
 const LOCALE = 'en-US';
 
-function compactMoney(currency: string): (x: number) => string {
+const stepOf = (ticks: number[]) => (ticks.length > 1 ? Math.abs(ticks[1] - ticks[0]) : 1);
+
+/** A tick that is zero up to rounding in the tick arithmetic (-5.6e-17) prints as 0, not "-0.0". */
+const snap = (x: number, step: number) => (Math.abs(x) < step * 1e-6 ? 0 : x);
+
+function compactMoney(currency: string, ticks: number[]): (x: number) => string {
   const f = new Intl.NumberFormat(LOCALE, { style: 'currency', currency, notation: 'compact', minimumFractionDigits: 0, maximumFractionDigits: 2 });
-  return (x) => f.format(x === 0 ? 0 : x);
+  const step = stepOf(ticks);
+  return (x) => f.format(snap(x, step));
 }
 
 function plainNumber(ticks: number[]): (x: number) => string {
   // Enough decimals to tell neighbouring ticks apart, no more.
-  const step = ticks.length > 1 ? Math.abs(ticks[1] - ticks[0]) : 1;
+  const step = stepOf(ticks);
   const decimals = step >= 1 ? 0 : Math.min(6, Math.ceil(-Math.log10(step) - 1e-9));
   const f = new Intl.NumberFormat(LOCALE, { minimumFractionDigits: decimals, maximumFractionDigits: decimals });
-  return (x) => f.format(x === 0 ? 0 : x);
+  return (x) => f.format(snap(x, step));
 }
 
 export function chartTicks(chart: Chart, currency: string, transform: Transform): ChartView {
-  const money = compactMoney(currency);
   const xMoney = chart.id === 'residuals';
   const yMoney = chart.id.startsWith('price-') || (chart.id === 'residuals' && transform === 'none');
-  const xFormat = xMoney ? money : plainNumber(chart.x.ticks);
-  const yFormat = yMoney ? money : plainNumber(chart.y?.ticks ?? []);
+  const yTicks = chart.y?.ticks ?? [];
+  const xFormat = xMoney ? compactMoney(currency, chart.x.ticks) : plainNumber(chart.x.ticks);
+  const yFormat = yMoney ? compactMoney(currency, yTicks) : plainNumber(yTicks);
   return {
     chart,
     xTicks: chart.x.ticks.map(xFormat),
-    yTicks: (chart.y?.ticks ?? []).map(yFormat),
+    yTicks: yTicks.map(yFormat),
   };
 }
 
 export function intervalTicks(picture: IntervalPicture, currency: string): IntervalView {
-  const money = compactMoney(currency);
+  const money = compactMoney(currency, picture.axis.ticks);
   const price = (x: number) => priceCell(x, currency).text;
   return {
     picture,
