@@ -7,9 +7,7 @@ import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { closeDatabase } from '../../store/database.js';
 import { findEstimate } from '../../store/estimates-repo.js';
-import { worksheetCsv } from '../../worksheet/worksheet-csv.js';
-import { buildWorksheet } from '../../worksheet/worksheet-model.js';
-import { worksheetPdf } from '../../worksheet/worksheet-pdf.js';
+import { worksheetDownload } from '../../worksheet/worksheet-download.js';
 import { InputError, parseOptions, type Command } from '../cli-io.js';
 import { openCliDatabase } from './store-access.js';
 
@@ -35,10 +33,9 @@ export const worksheetCommand: Command = async (args, io) => {
   }
   if (!saved) throw new InputError([`there is no saved estimate ${id}`]);
 
-  const worksheet = buildWorksheet(saved);
-  const bytes = extension === '.pdf' ? await worksheetPdf(worksheet) : worksheetCsv(worksheet);
+  const { body } = await worksheetDownload(saved, extension === '.pdf' ? 'pdf' : 'csv');
   try {
-    await writeFile(path.resolve(io.cwd, options.out), bytes, { flag: 'wx' });
+    await writeFile(path.resolve(io.cwd, options.out), body, { flag: 'wx' });
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     throw new InputError([code === 'EEXIST' ? `"${options.out}" already exists; choose another name` : `cannot write "${options.out}": ${code ?? (err as Error).message}`]);
