@@ -2,34 +2,26 @@
  * Estimates in a real browser (headless Chromium through playwright-core): a subject outside
  * the sales gets the warning first; a saved estimate keeps its numbers after a sale is edited.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startServer, type RunningServer } from '../../src/server.js';
 
-const CHROMIUM = '/usr/bin/chromium';
-const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
+import { readFileSync } from 'node:fs';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startBrowserApp, type BrowserApp } from './browser-app.js';
+
 const outside = JSON.parse(readFileSync(new URL('../../seed/demo-subject-outside.json', import.meta.url), 'utf8'));
 const inside = JSON.parse(readFileSync(new URL('../../seed/demo-subject.json', import.meta.url), 'utf8'));
 
-let dir: string;
-let server: RunningServer;
-let browser: Browser;
+let app: BrowserApp;
 let page: Page;
+let server: BrowserApp['server'];
 
 beforeAll(async () => {
-  dir = mkdtempSync(path.join(tmpdir(), 'compfit-estimate-browser-'));
-  server = await startServer({ port: 0, host: '127.0.0.1', databaseUrl: `file:${path.join(dir, 'test.db')}` }, () => {});
-  browser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS });
-  page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  app = await startBrowserApp('estimate-browser');
+  ({ page, server } = app);
 });
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  if (dir) rmSync(dir, { recursive: true, force: true });
+  await app?.close();
 });
 
 async function fillSubject(p: Page, subject: Record<string, string | number>) {

@@ -3,33 +3,22 @@
  * on a free port with a temporary database file, htmx loads from /static, and the pages
  * are driven the way a person would.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startServer, type RunningServer } from '../../src/server.js';
 import { countSales, findMarketByName } from '../../src/store/markets-repo.js';
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startBrowserApp, type BrowserApp } from './browser-app.js';
 
-const CHROMIUM = '/usr/bin/chromium';
-const ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
-
-let dir: string;
-let server: RunningServer;
-let browser: Browser;
+let app: BrowserApp;
 let page: Page;
+let server: BrowserApp['server'];
 
 beforeAll(async () => {
-  dir = mkdtempSync(path.join(tmpdir(), 'compfit-browser-'));
-  server = await startServer({ port: 0, host: '127.0.0.1', databaseUrl: `file:${path.join(dir, 'test.db')}` }, () => {});
-  browser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS });
-  page = await browser.newPage({ viewport: { width: 1280, height: 900 } });
+  app = await startBrowserApp('browser');
+  ({ page, server } = app);
 });
 
 afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-  if (dir) rmSync(dir, { recursive: true, force: true });
+  await app?.close();
 });
 
 describe('in a browser', () => {

@@ -1,17 +1,10 @@
 /** Small builders of sales and subjects for tests (invented values, no real properties). */
 import type { Sale, Subject } from '../../src/domain/sale.js';
 
-/** Seeded uniform [0, 1) generator (mulberry32), so tests are repeatable. */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from '../../seed/demo-sales.js';
+
+/** Seeded uniform [0, 1) generator, the demo's Mulberry32, so tests are repeatable. */
+export const seededRandom = mulberry32;
 
 export function makeSale(id: string, price: number, c: Sale['characteristics'], saleDate = '2024-05-15'): Sale {
   return { id, address: `${id} Test Lane`, saleDate, salePrice: price, characteristics: c, included: true };
