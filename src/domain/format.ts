@@ -25,8 +25,14 @@ export function currencySymbol(currency: string): string {
   return part?.value ?? currency;
 }
 
+/** Number formats by digits: building an Intl.NumberFormat costs far more than using one. */
+const numberFormats = new Map<number, Intl.NumberFormat>();
+
 export function formatNumber(n: number | undefined, maximumFractionDigits = 2): string {
-  return n === undefined ? '' : new Intl.NumberFormat(LOCALE, { maximumFractionDigits }).format(n);
+  if (n === undefined) return '';
+  let f = numberFormats.get(maximumFractionDigits);
+  if (!f) numberFormats.set(maximumFractionDigits, (f = new Intl.NumberFormat(LOCALE, { maximumFractionDigits })));
+  return f.format(n);
 }
 
 export function areaLabel(unit: string): string {

@@ -58,20 +58,44 @@ export class PdfCursor {
     return true;
   }
 
+  /** Widths already measured, per font and size: tables measure the same text again and again. */
+  private readonly widths = new Map<string, Map<string, number>>();
+  private currentWidths = new Map<string, number>();
+
+  /** Sets font and size for text and measuring. */
+  font(font: string, size: number): void {
+    this.doc.font(font).fontSize(size);
+    const key = `${font}|${size}`;
+    let cache = this.widths.get(key);
+    if (!cache) this.widths.set(key, (cache = new Map()));
+    this.currentWidths = cache;
+  }
+
   use(font: string, size: number, color: string = COLOR.text): void {
-    this.doc.font(font).fontSize(size).fillColor(color);
+    this.font(font, size);
+    this.doc.fillColor(color);
+  }
+
+  /** Width of text in the current font and size, in points. */
+  widthOfString(text: string): number {
+    let w = this.currentWidths.get(text);
+    if (w === undefined) {
+      w = this.doc.widthOfString(text);
+      this.currentWidths.set(text, w);
+    }
+    return w;
   }
 
   /** Wraps already-cleaned text in the current font. */
   lines(text: string, width: number): string[] {
-    return wrapText(this.doc, text, width);
+    return wrapText(this, text, width);
   }
 
   /** Writes one line with no wrapping and no page break, aligned inside `width`. */
   line(text: string, x: number, y: number, width: number, align: 'left' | 'right' | 'center' = 'left'): void {
     let dx = 0;
     if (align !== 'left') {
-      const w = this.doc.widthOfString(text);
+      const w = this.widthOfString(text);
       dx = align === 'right' ? width - w : (width - w) / 2;
     }
     this.doc.text(text, x + dx, y, { lineBreak: false });

@@ -21,22 +21,21 @@ interface Layout {
 
 function longestWord(c: PdfCursor, text: string): number {
   let w = 0;
-  for (const word of text.split(' ')) w = Math.max(w, c.doc.widthOfString(word));
+  for (const word of text.split(' ')) w = Math.max(w, c.widthOfString(word));
   return w;
 }
 
 /** Widths at one type size: natural widths, then wrap columns give way, then shrink the type. */
 function layout(c: PdfCursor, t: WorksheetTable, texts: string[][], headings: string[]): Layout {
-  const doc = c.doc;
   let size: number = SIZE.table;
   let widths: number[] = [];
   for (let attempt = 0; attempt < 4; attempt++) {
-    doc.font(FONT.regular).fontSize(size);
+    c.font(FONT.regular, size);
     const natural = t.columns.map((col, j) => {
       let w = 0;
       for (const row of texts) {
         const cell = row[j];
-        if (cell) w = Math.max(w, col.wrap ? Math.min(MAX_WRAP_WIDTH, doc.widthOfString(cell)) : doc.widthOfString(cell));
+        if (cell) w = Math.max(w, col.wrap ? Math.min(MAX_WRAP_WIDTH, c.widthOfString(cell)) : c.widthOfString(cell));
       }
       return w;
     });
@@ -45,7 +44,7 @@ function layout(c: PdfCursor, t: WorksheetTable, texts: string[][], headings: st
       if (col.wrap) for (const row of texts) if (row[j]) w = Math.max(w, Math.min(60, longestWord(c, row[j])));
       return col.wrap ? w : natural[j];
     });
-    doc.font(FONT.bold).fontSize(size);
+    c.font(FONT.bold, size);
     const headingWidth = headings.map((h) => longestWord(c, h));
     widths = t.columns.map((_, j) => Math.max(natural[j], headingWidth[j]) + 2 * PAD);
     const floor = t.columns.map((_, j) => Math.max(minimum[j], headingWidth[j]) + 2 * PAD);
@@ -75,7 +74,7 @@ function layout(c: PdfCursor, t: WorksheetTable, texts: string[][], headings: st
     }
     size = Math.max(MIN_SIZE, (size * c.width) / total - 0.05);
   }
-  doc.font(FONT.bold).fontSize(size);
+  c.font(FONT.bold, size);
   const headerLines = headings.map((h, j) => c.lines(h, widths[j] - 2 * PAD));
   const lineHeight = size * 1.25;
   const headerHeight = Math.max(...headerLines.map((l) => l.length)) * lineHeight + 2 * PAD;
@@ -115,7 +114,7 @@ export function drawTable(c: PdfCursor, t: WorksheetTable, options: { showHeadin
   const texts = t.rows.map((row) => row.map((cell) => c.clean(cell.text)));
   const headings = t.columns.map((col) => c.clean(col.heading));
   const l = layout(c, t, texts, headings);
-  doc.font(FONT.regular).fontSize(l.size);
+  c.font(FONT.regular, l.size);
   const wrapped = texts.map((row) => row.map((text, j) => (t.columns[j].wrap ? c.lines(text, l.widths[j] - 2 * PAD) : [text])));
   const rowHeight = (i: number) => Math.max(...wrapped[i].map((lines) => lines.length)) * l.lineHeight + PAD;
 

@@ -159,7 +159,7 @@ function drawPageFurniture(doc: Doc, c: PdfCursor, ws: Worksheet): void {
     c.rule(footerTop - 4, COLOR.rule, 0.5);
     const pageText = `Page ${i + 1} of ${total}`;
     c.use(FONT.bold, SIZE.small + 0.5);
-    const pageWidth = doc.widthOfString(pageText);
+    const pageWidth = c.widthOfString(pageText);
     c.use(FONT.regular, SIZE.small, COLOR.muted);
     const lines = c.lines(c.clean(ws.caution.line), c.width - pageWidth - 16);
     lines.forEach((l, k) => c.line(l, c.left, footerTop + k * SIZE.small * 1.3, c.width));
