@@ -73,7 +73,8 @@ export function niceAxis(min: number, max: number, count = 5, label = ''): Axis 
   const lo = Math.floor(min / step) * step;
   const hi = Math.ceil(max / step) * step;
   const ticks: number[] = [];
-  for (let v = lo; v <= hi + step / 2; v += step) ticks.push(Number(v.toPrecision(12)));
+  // Snap rounding residue (−5.55e-17) to the exact tick value.
+  for (let v = lo; v <= hi + step / 2; v += step) ticks.push(Math.abs(v) < step * 1e-9 ? 0 : Number(v.toPrecision(12)));
   return { label, min: lo, max: hi, ticks };
 }
 
@@ -123,7 +124,10 @@ export function estimateCharts(
     charts.push({
       id: `strip-${predictor}`,
       title: `${PREDICTOR_LABEL[predictor]}: sales and subject`,
-      description: `Strip of the ${values.length} sales' ${PREDICTOR_LABEL[predictor].toLowerCase()} from ${fmt(range.min)} to ${fmt(range.max)}; the subject's value ${fmt(sv)} is ${outside ? 'outside' : 'inside'} that range.`,
+      description:
+        predictor === 'months_since_sale'
+          ? `Strip of the ${values.length} sales' months from sale to the effective date, ${fmt(range.min)} to ${fmt(range.max)}; the subject is at 0, the effective date itself.`
+          : `Strip of the ${values.length} sales' ${PREDICTOR_LABEL[predictor].toLowerCase()} from ${fmt(range.min)} to ${fmt(range.max)}; the subject's value ${fmt(sv)} is ${outside ? 'outside' : 'inside'} that range.`,
       x,
       points: values.map((v) => ({ x: v, y: 0 })),
       subject: { x: sv, outside },

@@ -7,8 +7,8 @@ import type { FieldErrors, RawFields, Validated } from '../domain/validate-sale.
 export const AREA_UNITS = ['sqft', 'm2'] as const;
 export type AreaUnit = (typeof AREA_UNITS)[number];
 
-/** How each unit is written beside an input or a number. */
-export const AREA_UNIT_LABELS: Record<AreaUnit, string> = { sqft: 'sq ft', m2: 'm²' };
+/** How each unit is written beside an input or a number (one table, in domain/format.ts). */
+export { AREA_UNIT_LABEL as AREA_UNIT_LABELS } from '../domain/format.js';
 
 export interface MarketFields {
   name: string;

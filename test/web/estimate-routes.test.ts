@@ -134,6 +134,25 @@ describe('saved estimates', () => {
     expect(list).toContain(demoSubject.address);
     expect(list).toContain(value);
   });
+  it('downloads the worksheet as PDF and CSV, the same bytes before and after the sales change', async () => {
+    const saved = await t.post(`/markets/${marketId}/estimates`, { query: query(demoSubject) });
+    const url = saved.headers.get('Location')!;
+    const pdf = await t.get(`${url}/worksheet.pdf`);
+    expect(pdf.status).toBe(200);
+    expect(pdf.headers.get('Content-Type')).toBe('application/pdf');
+    expect(pdf.headers.get('Content-Disposition')).toMatch(/attachment; filename="estimate-\d+-worksheet.pdf"/);
+    const first = Buffer.from(await pdf.arrayBuffer());
+    expect(first.subarray(0, 5).toString()).toBe('%PDF-');
+    const csv = await t.get(`${url}/worksheet.csv`);
+    expect(csv.headers.get('Content-Type')).toMatch(/^text\/csv/);
+    expect(await csv.text()).toContain(demoSubject.address);
+
+    const sales = await allSales(t.db, marketId);
+    await updateSale(t.db, marketId, sales[0].key, { ...sales[0], salePrice: sales[0].salePrice + 12345 }, 'test');
+    const again = Buffer.from(await (await t.get(`${url}/worksheet.pdf`)).arrayBuffer());
+    expect(again.equals(first)).toBe(true);
+    expect((await t.get('/estimates/999/worksheet.pdf')).status).toBe(404);
+  });
   it('an unknown saved estimate is a 404', async () => {
     expect((await t.get('/estimates/999')).status).toBe(404);
   });

@@ -19,6 +19,7 @@ import { EstimatePage, type EstimateWorkProps } from '../views/estimate-page.js'
 import type { DiagnosticsRow } from '../views/estimate-results.js';
 import { areaLabel } from '../views/format.js';
 import { EstimatesListPage, SavedEstimatePage } from '../views/saved-estimate-page.js';
+import { worksheetDownload } from '../../worksheet/worksheet-download.js';
 import { estimateQuery, readEstimateInput, DEFAULT_GRID_SIZE } from './estimate-input.js';
 import { runMarketModel, saveMarketEstimate } from './estimate-service.js';
 import { formFields, idParam, marketOf } from './params.js';
@@ -92,6 +93,20 @@ export function marketEstimateRoutes(deps: { db: Database }) {
 export function savedEstimateRoutes(deps: { db: Database }) {
   const { db } = deps;
   const app = new Hono<AppEnv>();
+  // The worksheet of a saved estimate, from the snapshot alone: same bytes on every download.
+  for (const format of ['pdf', 'csv'] as const)
+    app.get(`/:estimateId/worksheet.${format}`, async (c) => {
+      const id = idParam(c, 'estimateId');
+      const saved = await findEstimate(db, id);
+      if (!saved) throw new HTTPException(404, { message: `There is no saved estimate ${id}.` });
+      const download = await worksheetDownload(saved, format);
+      return c.body(new Uint8Array(download.body), 200, {
+        'Content-Type': download.contentType,
+        'Content-Disposition': `attachment; filename="${download.fileName}"`,
+        'Cache-Control': 'private, max-age=3600',
+      });
+    });
+
   app.get('/:estimateId', async (c) => {
     const id = idParam(c, 'estimateId');
     const saved = await findEstimate(db, id);
