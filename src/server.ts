@@ -1,8 +1,11 @@
 /**
  * Node entry of the web app and the only reader of the environment (DESIGN.md
  * "Configuration"): PORT (3000), HOST (127.0.0.1), DATABASE_URL (an embedded file by
- * default, or a libSQL server URL), DATABASE_AUTH_TOKEN. It opens and migrates the
- * database, puts the demo market into an empty one, and serves the app.
+ * default, or a libSQL server URL), DATABASE_AUTH_TOKEN, and TRUST_PROXY (set when a TLS
+ * proxy forwards requests here: its X-Forwarded-* headers are then believed, and sign-in
+ * is required). It opens and migrates the database, puts the demo market into an empty
+ * one, and serves the app. A HOST other machines can reach, or TRUST_PROXY, needs a user
+ * first (`compfit user add NAME`); without one the server refuses to start.
  */
 import { serve, type ServerType } from '@hono/node-server';
 import { pathToFileURL } from 'node:url';
@@ -10,13 +13,26 @@ import { createApp } from './app.js';
 import { closeDatabase, openDatabase, type Database } from './store/database.js';
 import { seedDemoIfEmpty } from './store/demo-market.js';
 import { migrateDatabase } from './store/migrate.js';
+import { countUsers } from './store/users-repo.js';
+import { accessPolicyFor } from './web/middleware/access-policy.js';
 
 export interface Config {
   port: number;
   host: string;
   databaseUrl: string;
   databaseAuthToken?: string;
+  /** A proxy in front: believe its X-Forwarded-* headers, and require sign-in. */
+  trustProxy?: boolean;
+  /** Time limits on a connection (defaults in REQUEST_TIMEOUTS); tests shorten them. */
+  timeouts?: Partial<typeof REQUEST_TIMEOUTS>;
 }
+
+/**
+ * A client must send its request head within 20 s and the whole request (a 20 MB upload
+ * included) within 2 minutes, or Node answers 408 and closes the connection; this keeps
+ * slow or stalled clients from holding connections. Limits are checked every second.
+ */
+export const REQUEST_TIMEOUTS = { headersMs: 20_000, requestMs: 120_000, checkEveryMs: 1_000 };
 
 export const DEFAULT_DATABASE_URL = 'file:data/compfit.db';
 
@@ -35,7 +51,21 @@ export function readConfig(env: Record<string, string | undefined>): Config {
   if (!/^(file:|libsql:|https?:|wss?:|:memory:$)/.test(databaseUrl))
     throw new ConfigError(`DATABASE_URL must be a file:, libsql:, http: or https: URL, got "${databaseUrl}"`);
   const token = env.DATABASE_AUTH_TOKEN?.trim();
-  return { port, host: env.HOST?.trim() || '127.0.0.1', databaseUrl, ...(token ? { databaseAuthToken: token } : {}) };
+  const proxy = (env.TRUST_PROXY ?? '').trim().toLowerCase();
+  if (!['', '0', 'false', 'no', '1', 'true', 'yes'].includes(proxy)) throw new ConfigError(`TRUST_PROXY must be 1/true/yes or 0/false/no, got "${env.TRUST_PROXY}"`);
+  const trustProxy = ['1', 'true', 'yes'].includes(proxy);
+  return { port, host: env.HOST?.trim() || '127.0.0.1', databaseUrl, ...(token ? { databaseAuthToken: token } : {}), ...(trustProxy ? { trustProxy } : {}) };
+}
+
+/** Serving other machines needs someone to sign in as; say how to add them. */
+async function checkSomeoneCanSignIn(db: Database, config: Config): Promise<void> {
+  if ((await countUsers(db)) > 0) return;
+  const why = config.trustProxy ? 'TRUST_PROXY is set (a proxy forwards other machines\' requests here)' : `HOST ${config.host} can be reached from other machines`;
+  throw new ConfigError(
+    `${why}, so every page needs a sign-in, but there is no user yet. Add one first with \`compfit user add NAME\` ` +
+      `(\`npm run compfit -- user add NAME\`; it asks for the password), then start again. ` +
+      'To serve only this computer without sign-in, leave HOST unset (127.0.0.1) and TRUST_PROXY unset.',
+  );
 }
 
 /** Opens the configured database and brings its schema up to date. */
@@ -54,15 +84,26 @@ export interface RunningServer {
 /** Starts the app; `seedDemo` puts the demo market into a database that has no market yet. */
 export async function startServer(config: Config, log: (line: string) => void = console.log): Promise<RunningServer> {
   const db = await openConfiguredDatabase(config);
+  const access = accessPolicyFor(config.host, config.trustProxy ?? false);
+  if (access.signInRequired) {
+    try {
+      await checkSomeoneCanSignIn(db, config);
+    } catch (err) {
+      closeDatabase(db);
+      throw err;
+    }
+  }
   if (await seedDemoIfEmpty(db)) log('compfit: empty database, added the demo market');
-  const app = createApp({ db });
+  const app = createApp({ db, access });
+  const timeouts = { ...REQUEST_TIMEOUTS, ...config.timeouts };
+  const serverOptions = { headersTimeout: timeouts.headersMs, requestTimeout: timeouts.requestMs, connectionsCheckingInterval: timeouts.checkEveryMs };
   const server = await new Promise<ServerType>((resolve) => {
-    const s = serve({ fetch: app.fetch, port: config.port, hostname: config.host }, () => resolve(s));
+    const s = serve({ fetch: app.fetch, port: config.port, hostname: config.host, serverOptions }, () => resolve(s));
   });
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   const url = `http://${config.host.includes(':') ? `[${config.host}]` : config.host}:${port}`;
-  log(`compfit: serving on ${url} (database ${config.databaseUrl.replace(/\/\/[^@/]*@/, '//')})`);
+  log(`compfit: serving on ${url} (database ${config.databaseUrl.replace(/\/\/[^@/]*@/, '//')}; ${access.signInRequired ? 'sign-in required' : 'this computer only, no sign-in'})`);
   return {
     url,
     db,

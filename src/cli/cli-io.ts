@@ -7,6 +7,8 @@ export interface CliIo {
   stderr: (text: string) => void;
   /** Reads all of standard input (used for passwords and `-` file arguments). */
   readStdin: () => Promise<string>;
+  /** Asks at the terminal without echoing what is typed; present only when standard input is a terminal. */
+  readSecret?: (prompt: string) => Promise<string>;
   env: Record<string, string | undefined>;
   cwd: string;
 }

@@ -96,7 +96,7 @@ describe('estimate page', () => {
 
   it('leaving a flagged sale out refits without it and returns to the same estimate', async () => {
     const page = await (await t.get(`/markets/${marketId}/estimate?${query(demoSubject)}`)).text();
-    const form = /<form method="post" action="([^"]+)" class="inline leave-out"><input type="hidden" name="sale" value="(\d+)"\/><input type="hidden" name="back" value="([^"]+)"/.exec(page);
+    const form = /<form method="post" action="([^"]+)" class="inline leave-out">(?:<input type="hidden" name="_csrf" value="[^"]*"\/>)?<input type="hidden" name="sale" value="(\d+)"\/><input type="hidden" name="back" value="([^"]+)"/.exec(page);
     expect(form).not.toBeNull();
     const [, action, key, back] = form!;
     const res = await t.post(action, { sale: key, back: back.replace(/&amp;/g, '&'), excluded_reason: 'flagged in regression' });

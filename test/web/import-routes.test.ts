@@ -59,7 +59,12 @@ describe('CSV import', () => {
     const p = await preview(`${HEADER}\n${GOOD_ROW}\nA2,3 Low Road,2024-03-01,260000,1600,1992,6\n`);
     const url = /action="(\/markets\/\d+\/import\/\d+\/commit)"/.exec(p.html)![1];
     const other = createApp({ db: t.db });
-    const r = await other.request(url, { method: 'POST' });
+    // The same browser (cookie and form token) posting to the other instance.
+    const r = await other.request(url, {
+      method: 'POST',
+      body: new URLSearchParams({ _csrf: t.csrfToken }),
+      headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: t.cookie() },
+    });
     expect(r.status).toBe(303);
     expect((await allSales(t.db, m.id)).map((s) => s.id)).toEqual(['A1', 'A2']);
   });

@@ -9,3 +9,4 @@ registerCommand('export', 'export --market NAME [--output FILE.csv]', async () =
 registerCommand('serve', 'serve [--port 3000] [--host 127.0.0.1]', async () => (await import('./serve.js')).serveCommand);
 registerCommand('seed', 'seed   (rebuild the demo market)', async () => (await import('./seed.js')).seedCommand);
 registerCommand('worksheet', 'worksheet --estimate ID --out FILE.pdf|FILE.csv', async () => (await import('./worksheet.js')).worksheetCommand);
+registerCommand('user', 'user add NAME | user password NAME | user remove NAME | user list   (password asked, or read from standard input)', async () => (await import('./user.js')).userCommand);

@@ -15,7 +15,14 @@ export const serveCommand: Command = async (args, io) => {
     if (err instanceof ConfigError) throw new InputError([err.message.replace(/^PORT/, '--port')]);
     throw err;
   }
-  const running = await startServer(config, (line) => io.stderr(`${line}\n`));
+  let running;
+  try {
+    running = await startServer(config, (line) => io.stderr(`${line}\n`));
+  } catch (err) {
+    // Refusing to start (no user to sign in as, say) is the user's to fix: exit 2 with the reason.
+    if (err instanceof ConfigError) throw new InputError([err.message]);
+    throw err;
+  }
   await new Promise<void>((resolve) => {
     const stop = () => resolve();
     process.once('SIGINT', stop);

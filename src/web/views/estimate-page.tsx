@@ -23,6 +23,7 @@ import {
   WarningList,
   type DiagnosticsRow,
 } from './estimate-results.js';
+import { CsrfField } from './csrf-field.js';
 
 export interface EstimateWorkProps {
   market: Market;
@@ -167,6 +168,7 @@ export function EstimateWork(props: EstimateWorkProps) {
             <ValueBlock result={result} interval={charts.interval} ctx={ctx} />
             <EstimateCaution />
             <form method="post" action={`/markets/${market.id}/estimates`} class="save-form">
+              <CsrfField />
               <input type="hidden" name="query" value={props.query} />
               <button type="submit">Save this estimate</button>
               <span class="hint"> Saving keeps the exact sales, model, subject and numbers; they never change afterwards.</span>

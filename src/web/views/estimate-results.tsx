@@ -10,6 +10,7 @@ import { perUnitLabel } from '../../domain/model.js';
 import { CAUTION_TEXT, CAUTION_TITLE } from '../../domain/cautions.js';
 import { ChartSvg, IntervalSvg } from './charts.js';
 import { areaLabel, formatMoney } from './format.js';
+import { CsrfField } from './csrf-field.js';
 
 export interface MoneyContext {
   currency: string;
@@ -360,6 +361,7 @@ export function SalesDiagnostics(props: {
                     <td>
                       {s.flags.length > 0 && sale?.key !== undefined ? (
                         <form method="post" action={props.leaveOut.action} class="inline leave-out">
+                          <CsrfField />
                           <input type="hidden" name="sale" value={String(sale.key)} />
                           <input type="hidden" name="back" value={props.leaveOut.back} />
                           <label class="visually-hidden" for={`reason-${sale.key}`}>

@@ -8,6 +8,7 @@ import type { Market } from '../../store/markets-repo.js';
 import { formatMoney, formatNumber } from './format.js';
 import { Layout } from './layout.js';
 import { MarketHeader } from './market-nav.js';
+import { CsrfField } from './csrf-field.js';
 
 /** Rows shown in the preview; the commit writes all of them. */
 export const PREVIEW_ROWS = 100;
@@ -25,6 +26,7 @@ export function ImportPage(props: { market: Market; error?: string }) {
         Every row is checked first; if any row has a problem, nothing is imported. Files up to {MAX_CSV_BYTES / 1024 / 1024} MB.
       </p>
       <form id="import-form" class="form" method="post" action={`/markets/${market.id}/import`} enctype="multipart/form-data">
+        <CsrfField />
         <div class={`field${props.error ? ' has-error' : ''}`}>
           <label for="f-file">CSV file</label>
           <div class="control">
@@ -115,6 +117,7 @@ export function ImportPreviewPage(props: { market: Market; batchId: number; file
       </p>
       <Notices notices={props.notices} />
       <form method="post" action={`/markets/${market.id}/import/${props.batchId}/commit`} class="actions">
+        <CsrfField />
         <button type="submit">
           Import {sales.length} {sales.length === 1 ? 'sale' : 'sales'}
         </button>

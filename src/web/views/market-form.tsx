@@ -4,6 +4,7 @@ import type { Market } from '../../store/markets-repo.js';
 import { ErrorSummary, Field } from './field.js';
 import { Layout } from './layout.js';
 import { MarketHeader } from './market-nav.js';
+import { CsrfField } from './csrf-field.js';
 
 export interface MarketFormProps {
   /** Undefined when creating. */
@@ -21,6 +22,7 @@ export function MarketForm(p: MarketFormProps) {
   const unit = p.values.area_unit ?? 'sqft';
   return (
     <form id="market-form" class="form" method="post" action={action} hx-post={action} hx-target="this" hx-swap="outerHTML">
+      <CsrfField />
       <ErrorSummary errors={p.errors} />
       <Field name="name" label="Name" value={p.values.name} error={p.errors.name} required maxlength={120} autofocus />
       <div class={`field${p.errors.area_unit ? ' has-error' : ''}`}>

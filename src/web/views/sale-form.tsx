@@ -10,6 +10,7 @@ import { ErrorSummary, Field } from './field.js';
 import { areaLabel } from './format.js';
 import { Layout } from './layout.js';
 import { MarketHeader } from './market-nav.js';
+import { CsrfField } from './csrf-field.js';
 
 export interface SaleFormProps {
   market: Market;
@@ -46,6 +47,7 @@ export function SaleForm(p: SaleFormProps) {
   const included = (values.included ?? 'yes') !== 'no';
   return (
     <form id="sale-form" class="form sale-form" method="post" action={action} hx-post={action} hx-target="this" hx-swap="outerHTML" novalidate>
+      <CsrfField />
       <ErrorSummary errors={errors} />
       <fieldset>
         <legend>The sale</legend>

@@ -7,6 +7,7 @@ import { Layout } from './layout.js';
 import { MarketHeader } from './market-nav.js';
 import { saleValues } from './sale-form.js';
 import { saleUrl } from './sales-table.js';
+import { CsrfField } from './csrf-field.js';
 
 function characteristicText(market: Market, sale: Sale, c: (typeof CHARACTERISTICS)[number]): string {
   const v = sale.characteristics[c];
@@ -111,6 +112,7 @@ export function SalePage(props: { market: Market; sale: StoredSale; changes: Sal
           </a>
         ) : (
           <form method="post" action={saleUrl(market, sale, '/include')} class="inline">
+            <CsrfField />
             <button type="submit" class="secondary">
               Include
             </button>
@@ -138,6 +140,7 @@ export function ExcludeSalePage(props: { market: Market; sale: StoredSale; reaso
         out of estimates; the reason is shown wherever the sale is listed.
       </p>
       <form id="exclude-form" class="form" method="post" action={url} hx-post={url} hx-target="this" hx-swap="outerHTML" hx-select="#exclude-form">
+        <CsrfField />
         <div class={`field${props.error ? ' has-error' : ''}`}>
           <label for="f-excluded_reason">Reason</label>
           <div class="control">
@@ -169,6 +172,7 @@ export function DeleteSalePage(props: { market: Market; sale: StoredSale }) {
         right after; the history keeps the sale as it was.
       </p>
       <form method="post" action={saleUrl(market, sale, '/delete')} class="actions">
+        <CsrfField />
         <button type="submit" class="danger">
           Delete sale
         </button>

@@ -6,6 +6,7 @@ import { Layout } from './layout.js';
 import { MarketHeader } from './market-nav.js';
 import { SalesRegion } from './sales-table.js';
 import type { SalesQueryState } from './sales-query.js';
+import { CsrfField } from './csrf-field.js';
 
 export type SalesNotice = { kind: 'imported'; count: number } | { kind: 'deleted'; sale: StoredSale | undefined; changeId: number } | { kind: 'saved'; ref: string };
 
@@ -17,6 +18,7 @@ function Notice(props: { market: Market; notice?: SalesNotice }) {
   const url = `/markets/${props.market.id}/sales/restore/${n.changeId}`;
   return (
     <form class="notice" method="post" action={url}>
+      <CsrfField />
       Deleted sale {n.sale ? `${n.sale.id} at ${n.sale.address}` : ''}.{' '}
       <button type="submit" class="link">
         Undo

@@ -6,6 +6,7 @@ import type { Market } from '../../store/markets-repo.js';
 import type { SalesPage, SaleSort, StoredSale } from '../../store/sales-repo.js';
 import { areaLabel, formatMoney, formatNumber } from './format.js';
 import { salesQueryString, type SalesQueryState } from './sales-query.js';
+import { CsrfField } from './csrf-field.js';
 
 const COLUMNS: { sort?: SaleSort; label: string; num?: boolean; unit?: boolean; minor?: boolean }[] = [
   { sort: 'id', label: 'Ref' },
@@ -62,6 +63,7 @@ export function SaleRow(props: { market: Market; sale: StoredSale }) {
             <a href={saleUrl(market, sale, '/exclude')}>Exclude</a>
           ) : (
             <form method="post" action={saleUrl(market, sale, '/include')} hx-post={saleUrl(market, sale, '/include')} hx-target="closest tr" hx-swap="outerHTML">
+              <CsrfField />
               <button type="submit" class="link">
                 Include
               </button>
@@ -89,6 +91,7 @@ export function DeletedSaleRow(props: { market: Market; sale: StoredSale; change
     <tr id={`sale-${props.sale.key}`} class="deleted">
       <td colspan={COLUMNS.length}>
         <form method="post" action={url} hx-post={url} hx-target="closest tr" hx-swap="outerHTML" class="inline">
+          <CsrfField />
           Deleted sale {props.sale.id} at {props.sale.address}.{' '}
           <button type="submit" class="link">
             Undo
