@@ -1,5 +1,4 @@
 /** The sign-in page: name and password, for a compfit that other machines can reach. */
-import { Field } from './field.js';
 import { CsrfField } from './csrf-field.js';
 import { Layout } from './layout.js';
 
@@ -23,7 +22,14 @@ export function SignInPage(p: SignInProps) {
             <p>{p.error}</p>
           </div>
         ) : null}
-        <Field name="name" label="Name" value={p.name} required maxlength={64} autofocus={!p.name} />
+        <div class="field">
+          <label for="f-name">
+            Name<span class="required" aria-hidden="true"> *</span>
+          </label>
+          <div class="control">
+            <input id="f-name" name="name" value={p.name} required maxlength={64} autocomplete="username" autofocus={!p.name} />
+          </div>
+        </div>
         <div class="field">
           <label for="f-password">
             Password<span class="required" aria-hidden="true"> *</span>
