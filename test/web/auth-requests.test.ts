@@ -123,7 +123,8 @@ describe('CSRF token', () => {
 describe('where a request comes from', () => {
   it('a post from another origin or another site is refused even with the right token', async () => {
     const before = await marketCount();
-    for (const headers of [{ Origin: 'http://evil.example' }, { 'Sec-Fetch-Site': 'cross-site' }, { 'Sec-Fetch-Site': 'same-site' }, { Origin: 'https://localhost' }]) {
+    const foreign: Record<string, string>[] = [{ Origin: 'http://evil.example' }, { 'Sec-Fetch-Site': 'cross-site' }, { 'Sec-Fetch-Site': 'same-site' }, { Origin: 'https://localhost' }];
+    for (const headers of foreign) {
       const res = await t.post('/markets', NEW_MARKET, headers);
       expect(res.status, JSON.stringify(headers)).toBe(403);
       expect(textOf(await res.text())).toMatch(/A request from .* was refused/);
