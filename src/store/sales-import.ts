@@ -6,6 +6,11 @@
  * The bulk insert goes straight to the libSQL transaction with multi-row INSERTs: drizzle's
  * query builder spends about 1 ms per row building large statements, which alone would
  * take 100,000 rows past the 5 s budget. Column names still come from the schema.
+ *
+ * Statements run synchronously, so between chunks the import yields to the event loop:
+ * a large import would otherwise stop every other request of its process for seconds
+ * (and let idle keep-alive timers drop connections that had a request waiting). Writers
+ * of the same process then wait for the lock without blocking (busy-retry.ts).
  */
 import type { InArgs, Transaction } from '@libsql/client';
 import type { Sale } from '../domain/sale.js';
@@ -131,6 +136,7 @@ export async function importSales(db: Database, marketId: number, incoming: read
       }
       await tx.execute({ sql: insertSql('sales', SALE_COLUMNS, chunk.length), args: saleArgs });
       await tx.execute({ sql: insertSql('sale_changes', CHANGE_COLUMNS, chunk.length), args: changeArgs });
+      await new Promise<void>((resolve) => setImmediate(resolve));
     }
     await tx.commit();
     return { ok: true, count: incoming.length, batchId };

@@ -4,6 +4,7 @@
  * database while it serves.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -18,6 +19,15 @@ export interface AppProcess {
   exited: Promise<{ code: number | null; signal: NodeJS.Signals | null }>;
   /** SIGTERM and wait (the server closes its database cleanly). */
   stop: () => Promise<void>;
+}
+
+/** A port free right now, so a restarted app can come back at the same address (its cookies still apply). */
+export async function freePort(): Promise<number> {
+  const server = createServer();
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const { port } = server.address() as { port: number };
+  await new Promise((resolve) => server.close(resolve));
+  return port;
 }
 
 /** Runs `node --import tsx src/server.ts` (or another entry) and waits until it serves. */

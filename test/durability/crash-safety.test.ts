@@ -14,7 +14,7 @@ import { mulberry32 } from '../../seed/demo-sales.js';
 import { closeDatabase, openDatabase } from '../../src/store/database.js';
 import { migrateDatabase } from '../../src/store/migrate.js';
 import { createMarket } from '../../src/store/markets-repo.js';
-import { startAppProcess, type AppProcess } from './app-process.js';
+import { freePort, startAppProcess, type AppProcess } from './app-process.js';
 import { FormClient } from './form-client.js';
 import { salesCsv } from './sales-file.js';
 import { readWalFrames } from './wal-frames.js';
@@ -26,6 +26,8 @@ let dir: string;
 let dbFile: string;
 let url: string;
 let csv: string;
+/** The app comes back on the same port after each crash, as it would for its users. */
+let port: string;
 const marketIds: number[] = [];
 
 beforeAll(async () => {
@@ -42,7 +44,10 @@ beforeAll(async () => {
   }
   closeDatabase(db);
   csv = salesCsv(ROWS, { street: 'Crash Court' });
+  port = String(await freePort());
 });
+
+const start = () => startAppProcess({ databaseUrl: url, env: { PORT: port } });
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -117,13 +122,14 @@ function expectWhollyAbsent(s: ImportState): void {
 
 describe('a 50,000-row import killed with SIGKILL', () => {
   it('leaves an intact database with each import wholly there or wholly absent, ten times over', { timeout: 180_000 }, async () => {
-    let app: AppProcess = await startAppProcess({ databaseUrl: url });
+    let app: AppProcess = await start();
     try {
       // An uninterrupted import first: it must land whole, and its duration scales the kill times.
       const calibration = marketIds[0];
-      const cal = await preview(new FormClient(app.url), calibration);
+      const calClient = new FormClient(app.url);
+      const cal = await preview(calClient, calibration);
       const t0 = performance.now();
-      const done = await new FormClient(app.url).submit(cal.action, {});
+      const done = await calClient.submit(cal.action, {});
       const commitMs = performance.now() - t0;
       expect(done.status).toBe(303);
       expect(done.location).toBe(`/markets/${calibration}?imported=${ROWS}`);
@@ -132,13 +138,13 @@ describe('a 50,000-row import killed with SIGKILL', () => {
       expectWhollyPresent(calState);
 
       const rand = mulberry32(0xc0ffee);
-      const outcomes: { marketId: number; batchId: number; action: string; delayMs: number; present: boolean; uncommittedFrames: number }[] = [];
+      const outcomes: { client: FormClient; marketId: number; batchId: number; action: string; delayMs: number; present: boolean; uncommittedFrames: number }[] = [];
       for (let i = 1; i <= KILLS; i++) {
         const marketId = marketIds[i];
         const client = new FormClient(app.url);
         const { action, batchId } = await preview(client, marketId);
-        // From just after the request is sent to a little past the calibrated commit time.
-        const delayMs = Math.round(commitMs * (0.05 + 1.2 * rand()));
+        // From just after the request is sent to past the calibrated commit time (later commits run slower).
+        const delayMs = Math.round(commitMs * (0.05 + 1.6 * rand()));
         const commit = client.submit(action, {}).catch(() => undefined);
         await new Promise((r) => setTimeout(r, delayMs));
         app.child.kill('SIGKILL');
@@ -153,10 +159,10 @@ describe('a 50,000-row import killed with SIGKILL', () => {
         else expectWhollyPresent(s);
         // Imports committed before this one are untouched.
         expect(s.otherMarketsSales).toBe(ROWS * (1 + outcomes.filter((o) => o.present).length));
-        outcomes.push({ marketId, batchId, action, delayMs, present: s.sales === ROWS, uncommittedFrames: wal.uncommitted });
+        outcomes.push({ client, marketId, batchId, action, delayMs, present: s.sales === ROWS, uncommittedFrames: wal.uncommitted });
 
         // The app starts again on the file after every crash.
-        app = await startAppProcess({ databaseUrl: url });
+        app = await start();
       }
 
       const midTransaction = outcomes.filter((o) => !o.present && o.uncommittedFrames > 0).length;
@@ -169,10 +175,11 @@ describe('a 50,000-row import killed with SIGKILL', () => {
       // The kills must really land inside the import's transaction, or this test proves little.
       expect(midTransaction).toBeGreaterThanOrEqual(3);
 
-      // An import lost to a crash can still be committed from its preview after the restart
-      // (the new process has no cached rows and reads the stored file again).
+      // An import lost to a crash can still be committed from its preview page after the
+      // restart, as a user would press the button again (the new process has no cached rows
+      // and reads the stored file again).
       const lost = outcomes.find((o) => !o.present)!;
-      const retried = await new FormClient(app.url).submit(lost.action, {});
+      const retried = await lost.client.submit(lost.action, {});
       expect(retried.status).toBe(303);
       const after = await inspect(lost.marketId, lost.batchId);
       expect(after.integrity).toEqual(['ok']);
