@@ -10,3 +10,4 @@ registerCommand('serve', 'serve [--port 3000] [--host 127.0.0.1]', async () => (
 registerCommand('seed', 'seed   (rebuild the demo market)', async () => (await import('./seed.js')).seedCommand);
 registerCommand('worksheet', 'worksheet --estimate ID --out FILE.pdf|FILE.csv', async () => (await import('./worksheet.js')).worksheetCommand);
 registerCommand('user', 'user add NAME | user password NAME | user remove NAME | user list   (password asked, or read from standard input)', async () => (await import('./user.js')).userCommand);
+registerCommand('backup', 'backup FILE [--force]   (a consistent copy of the database file, safe while the app runs)', async () => (await import('./backup.js')).backupCommand);
