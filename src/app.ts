@@ -10,6 +10,7 @@ import { LOOPBACK_ONLY, type AccessPolicy } from './web/middleware/access-policy
 import { bodySizeLimits } from './web/middleware/body-size.js';
 import { csrfProtection } from './web/middleware/csrf.js';
 import { handleError, handleNotFound } from './web/middleware/error-handler.js';
+import { wellFormedForms } from './web/middleware/form-body.js';
 import { loopbackNamesOnly } from './web/middleware/loopback-names-only.js';
 import { securityHeaders } from './web/middleware/security-headers.js';
 import { signInRequired } from './web/middleware/sign-in-required.js';
@@ -47,6 +48,7 @@ export function createApp(deps: AppDeps): Hono<AppEnv> {
   app.use(policy.signInRequired ? signInRequired({ db: deps.db, policy, now }) : loopbackNamesOnly());
   app.use(bodySizeLimits());
   app.use(csrfProtection(policy));
+  app.use(wellFormedForms());
 
   app.get('/', (c) => c.redirect('/markets'));
   app.route('/static', staticRoutes());

@@ -80,6 +80,8 @@ export function checkCharacteristic(
 function checkText(errors: FieldErrors, field: keyof typeof MAX_TEXT_LENGTH, value: string | undefined): void {
   if (value !== undefined && value.length > MAX_TEXT_LENGTH[field])
     errors[field] = `${field} is longer than ${MAX_TEXT_LENGTH[field]} characters`;
+  // SQLite text ends at a NUL, so it would be stored cut short.
+  else if (value?.includes('\u0000')) errors[field] = `${field} contains a NUL character (U+0000), which cannot be stored`;
 }
 
 /**

@@ -224,6 +224,17 @@ describe('body size', () => {
     expect(await res.json()).toEqual({ errors: ['The request is larger than 256 KB; nothing was saved.'] });
   });
 
+  it('a field holding a NUL character (which SQLite would cut the text at) is refused naming the field; in a CSV, naming row and column', async () => {
+    const before = await marketCount();
+    const res = await t.post('/markets', { ...NEW_MARKET, notes: 'before\u0000after' });
+    expect(res.status).toBe(422);
+    expect(textOf(await res.text())).toContain('The field notes contains a NUL character (U+0000), which cannot be stored; nothing was saved.');
+    expect(await marketCount()).toBe(before);
+    const csv = await t.upload(`/markets/${marketId}/import`, 'nul.csv', 'address,sale_date,sale_price\n1 Elm\u0000 Row,2025-01-02,200000\n');
+    expect(csv.status).toBe(422);
+    expect(textOf(await csv.text())).toMatch(/1\s*address\s*1 Elm\u0000 Row\s*address contains a NUL character \(U\+0000\), which cannot be stored/);
+  });
+
   it('a body that is not a well-formed form is a 400, not a server error', async () => {
     const res = await t.app.request('/markets', {
       method: 'POST',

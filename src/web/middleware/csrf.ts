@@ -18,6 +18,7 @@ import { getCookie, setCookie } from 'hono/cookie';
 import type { AppEnv } from '../app-env.js';
 import { CSRF_FIELD, CSRF_HEADER } from '../views/csrf-field.js';
 import { expectedOrigin, requestIsSecure, type AccessPolicy } from './access-policy.js';
+import { MalformedFormError, readFormBody } from './form-body.js';
 import { isApiRequest, refuse } from './refuse.js';
 
 export { CSRF_FIELD, CSRF_HEADER };
@@ -48,13 +49,11 @@ function foreignOrigin(c: Context, policy: AccessPolicy): string | undefined {
   return undefined;
 }
 
+/** The token the request carries: the htmx header, or the form's hidden field. */
 async function sentToken(c: Context): Promise<string | undefined> {
   const header = c.req.header(CSRF_HEADER);
   if (header) return header;
-  const type = c.req.header('Content-Type') ?? '';
-  if (!/^(application\/x-www-form-urlencoded|multipart\/form-data)/i.test(type)) return undefined;
-  const body = await c.req.parseBody();
-  const field = body[CSRF_FIELD];
+  const field = (await readFormBody(c))[CSRF_FIELD];
   return typeof field === 'string' ? field : undefined;
 }
 
@@ -84,7 +83,8 @@ export function csrfProtection(policy: AccessPolicy): MiddlewareHandler<AppEnv> 
     let sent: string | undefined;
     try {
       sent = await sentToken(c);
-    } catch {
+    } catch (err) {
+      if (!(err instanceof MalformedFormError)) throw err;
       return refuse(c, 400, 'The form could not be read (its body is not a well-formed form); nothing was saved.');
     }
     if (!sent || !sameToken(sent, token)) return refuse(c, 403, EXPIRED);

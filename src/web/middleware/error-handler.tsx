@@ -8,8 +8,11 @@ import { HTTPException } from 'hono/http-exception';
 import { NotFoundError } from '../../store/markets-repo.js';
 import { ErrorMessage, ErrorPage } from '../views/error-page.js';
 import { isHtmx, renderPage } from './htmx.js';
+import { isApiRequest } from './refuse.js';
 
 export function renderError(c: Context, status: 400 | 404 | 413 | 422 | 500, message: string) {
+  // The JSON API answers its errors in JSON, like its 422s: { errors: [message] }.
+  if (isApiRequest(c)) return c.json({ errors: [message] }, status);
   if (isHtmx(c)) {
     c.header('HX-Retarget', '#messages');
     c.header('HX-Reswap', 'innerHTML');

@@ -7,7 +7,7 @@ import { html } from 'hono/html';
 import { ErrorMessage, ErrorPage } from '../views/error-page.js';
 import { isHtmx } from './htmx.js';
 
-export type RefusalStatus = 400 | 401 | 403 | 413 | 415 | 421 | 429;
+export type RefusalStatus = 400 | 401 | 403 | 413 | 415 | 421 | 422 | 429;
 
 export function isApiRequest(c: Context): boolean {
   return c.req.path === '/api' || c.req.path.startsWith('/api/');

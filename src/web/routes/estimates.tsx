@@ -8,7 +8,7 @@ import { HTTPException } from 'hono/http-exception';
 import { estimateCharts } from '../../domain/estimate-charts.js';
 import { validateModel } from '../../domain/model.js';
 import { parseSubject } from '../../domain/subject-json.js';
-import { MAX_TEXT_LENGTH } from '../../domain/validate-sale.js';
+import { MAX_TEXT_LENGTH, parseIsoDate } from '../../domain/validate-sale.js';
 import type { Database } from '../../store/database.js';
 import { findEstimate, listEstimates } from '../../store/estimates-repo.js';
 import { getMarket } from '../../store/markets-repo.js';
@@ -35,7 +35,11 @@ export function marketEstimateRoutes(deps: { db: Database }) {
     const market = await marketOf(c, db);
     const input = readEstimateInput(new URL(c.req.url).searchParams, today());
     const subjectOk = input.subject !== undefined;
-    const run = await runMarketModel(db, market, input.model, input.subjectFields.effective_date || today(), input.subject);
+    // The fit needs a real date (months_since_sale counts to it); a bad one is a field error, the fit is as of today.
+    const given = input.subjectFields.effective_date;
+    const fitDate = parseIsoDate(given) ?? today();
+    if (fitDate !== given) input.subjectErrors.effective_date ??= `effective_date must be a real date as YYYY-MM-DD, got "${given}"`;
+    const run = await runMarketModel(db, market, input.model, fitDate, input.subject);
     const sales = new Map<string, DiagnosticsRow>(run.sales.map((s) => [s.id, { id: s.id, address: s.address, salePrice: s.salePrice, key: s.key }]));
     const props: EstimateWorkProps = {
       market,
@@ -47,7 +51,7 @@ export function marketEstimateRoutes(deps: { db: Database }) {
       sales,
       query: estimateQuery(input.model, input.subjectFields, input.gridSize),
     };
-    const status = input.modelErrors.length > 0 || (input.wantsEstimate && !subjectOk) ? 422 : 200;
+    const status = input.modelErrors.length > 0 || (input.wantsEstimate && !subjectOk) || input.subjectErrors.effective_date ? 422 : 200;
     return renderPage(c, <EstimatePage {...props} />, status);
   });
 
@@ -137,10 +141,11 @@ async function readApiBody(c: { req: { json: () => Promise<unknown> } }) {
     errors.push('predictors: must be a list of predictor names');
   if (body.transform !== undefined && typeof body.transform !== 'string') errors.push('transform: must be "none" or "log"');
   if (body.level !== undefined && typeof body.level !== 'number') errors.push('level: must be a number such as 0.95');
+  // Only values of the right type go on to the model check; the others already have their message.
   const model = validateModel({
-    predictors: body.predictors as string[] | undefined,
-    transform: body.transform as string | undefined,
-    level: body.level as number | undefined,
+    predictors: Array.isArray(body.predictors) && body.predictors.every((p) => typeof p === 'string') ? (body.predictors as string[]) : undefined,
+    transform: typeof body.transform === 'string' ? body.transform : undefined,
+    level: typeof body.level === 'number' ? body.level : undefined,
   });
   if (!model.ok) errors.push(...model.errors);
   const subject = parseSubject(body.subject);

@@ -89,7 +89,7 @@ export function SaleForm(p: SaleFormProps) {
         <div class={`field${errors.included ? ' has-error' : ''}`}>
           <label for="f-included">Use in estimates</label>
           <div class="control">
-            <select id="f-included" name="included">
+            <select id="f-included" name="included" aria-invalid={errors.included ? 'true' : undefined} aria-describedby={errors.included ? 'f-included-error' : undefined}>
               <option value="yes" selected={included}>
                 Included
               </option>
@@ -98,7 +98,11 @@ export function SaleForm(p: SaleFormProps) {
               </option>
             </select>
           </div>
-          {errors.included ? <p class="error">{errors.included}</p> : null}
+          {errors.included ? (
+            <p class="error" id="f-included-error">
+              {errors.included}
+            </p>
+          ) : null}
         </div>
         <Field name="excluded_reason" label="Reason for excluding" value={values.excluded_reason} error={errors.excluded_reason} maxlength={MAX_TEXT_LENGTH.excluded_reason} hint="Needed when the sale is excluded." />
       </fieldset>
