@@ -39,7 +39,7 @@ describe('openDatabase', () => {
     await migrateDatabase(second);
     expect((await listMarkets(second)).map((m) => m.name)).toEqual(['Kept']);
     const tables = await second.$client.execute("select name from sqlite_master where type = 'table' and name not like '\\_%' escape '\\' and name not like 'sqlite%' order by name");
-    expect(tables.rows.map((r) => r.name)).toEqual(['estimates', 'import_batches', 'markets', 'sale_changes', 'sales', 'sessions', 'users']);
+    expect(tables.rows.map((r) => r.name)).toEqual(['estimates', 'import_batches', 'markets', 'sale_changes', 'sales', 'sessions', 'sign_in_attempts', 'users']);
     closeDatabase(second);
   });
 
