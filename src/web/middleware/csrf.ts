@@ -21,7 +21,6 @@ import { expectedOrigin, requestIsSecure, type AccessPolicy } from './access-pol
 import { MalformedFormError, readFormBody } from './form-body.js';
 import { isApiRequest, refuse } from './refuse.js';
 
-export { CSRF_FIELD, CSRF_HEADER };
 export const CSRF_COOKIE = 'compfit_csrf';
 
 const SAFE_METHODS = /^(GET|HEAD|OPTIONS)$/;
