@@ -5,11 +5,14 @@
  * proxy forwards requests here: its X-Forwarded-* headers are then believed, and sign-in
  * is required). It opens and migrates the database, puts the demo market into an empty
  * one, and serves the app. A HOST other machines can reach, or TRUST_PROXY, needs a user
- * first (`compfit user add NAME`); without one the server refuses to start.
+ * first (`compfit user add NAME`); without one the server refuses to start. WORKERS (1) runs
+ * that many app processes on the one port and database (server-workers.ts).
  */
 import { serve, type ServerType } from '@hono/node-server';
-import { pathToFileURL } from 'node:url';
+import cluster from 'node:cluster';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { createApp } from './app.js';
+import { runWorker, serveWithWorkers } from './server-workers.js';
 import { closeDatabase, openDatabase, type Database } from './store/database.js';
 import { seedDemoIfEmpty } from './store/demo-market.js';
 import { migrateDatabase } from './store/migrate.js';
@@ -25,6 +28,8 @@ export interface Config {
   trustProxy?: boolean;
   /** Time limits on a connection (defaults in REQUEST_TIMEOUTS); tests shorten them. */
   timeouts?: Partial<typeof REQUEST_TIMEOUTS>;
+  /** App processes sharing the port and the database (WORKERS, default 1); see server-workers.ts. */
+  workers?: number;
 }
 
 /**
@@ -35,6 +40,9 @@ export interface Config {
 export const REQUEST_TIMEOUTS = { headersMs: 20_000, requestMs: 120_000, checkEveryMs: 1_000 };
 
 export const DEFAULT_DATABASE_URL = 'file:data/compfit.db';
+export const MAX_WORKERS = 64;
+/** This file, which worker processes run (server-workers.ts). */
+export const SERVER_ENTRY = fileURLToPath(import.meta.url);
 
 export class ConfigError extends Error {
   constructor(message: string) {
@@ -54,7 +62,17 @@ export function readConfig(env: Record<string, string | undefined>): Config {
   const proxy = (env.TRUST_PROXY ?? '').trim().toLowerCase();
   if (!['', '0', 'false', 'no', '1', 'true', 'yes'].includes(proxy)) throw new ConfigError(`TRUST_PROXY must be 1/true/yes or 0/false/no, got "${env.TRUST_PROXY}"`);
   const trustProxy = ['1', 'true', 'yes'].includes(proxy);
-  return { port, host: env.HOST?.trim() || '127.0.0.1', databaseUrl, ...(token ? { databaseAuthToken: token } : {}), ...(trustProxy ? { trustProxy } : {}) };
+  const workersText = env.WORKERS?.trim() || '1';
+  const workers = Number(workersText);
+  if (!/^\d+$/.test(workersText) || workers < 1 || workers > MAX_WORKERS) throw new ConfigError(`WORKERS must be a whole number from 1 to ${MAX_WORKERS}, got "${env.WORKERS}"`);
+  return {
+    port,
+    host: env.HOST?.trim() || '127.0.0.1',
+    databaseUrl,
+    ...(token ? { databaseAuthToken: token } : {}),
+    ...(trustProxy ? { trustProxy } : {}),
+    ...(workers > 1 ? { workers } : {}),
+  };
 }
 
 /** Serving other machines needs someone to sign in as; say how to add them. */
@@ -81,8 +99,11 @@ export interface RunningServer {
   close: () => Promise<void>;
 }
 
-/** Starts the app; `seedDemo` puts the demo market into a database that has no market yet. */
-export async function startServer(config: Config, log: (line: string) => void = console.log): Promise<RunningServer> {
+/**
+ * Opens and migrates the database, makes sure someone can sign in where that is needed, and
+ * (unless `seedDemo` is false) puts the demo market into a database that has no market yet.
+ */
+export async function prepareDatabase(config: Config, log: (line: string) => void, options: { seedDemo?: boolean } = {}) {
   const db = await openConfiguredDatabase(config);
   const access = accessPolicyFor(config.host, config.trustProxy ?? false);
   if (access.signInRequired) {
@@ -93,7 +114,13 @@ export async function startServer(config: Config, log: (line: string) => void = 
       throw err;
     }
   }
-  if (await seedDemoIfEmpty(db)) log('compfit: empty database, added the demo market');
+  if (options.seedDemo !== false && (await seedDemoIfEmpty(db))) log('compfit: empty database, added the demo market');
+  return { db, access };
+}
+
+/** Starts the app in this process (several: server-workers.ts); the demo market goes into an empty database. */
+export async function startServer(config: Config, log: (line: string) => void = console.log, options: { seedDemo?: boolean } = {}): Promise<RunningServer> {
+  const { db, access } = await prepareDatabase(config, log, options);
   const app = createApp({ db, access });
   const timeouts = { ...REQUEST_TIMEOUTS, ...config.timeouts };
   const serverOptions = { headersTimeout: timeouts.headersMs, requestTimeout: timeouts.requestMs, connectionsCheckingInterval: timeouts.checkEveryMs };
@@ -120,9 +147,10 @@ export async function startServer(config: Config, log: (line: string) => void = 
 }
 
 const isMain = process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href;
-if (isMain) {
+if (isMain && cluster.isWorker) await runWorker();
+else if (isMain) {
   try {
-    const running = await startServer(readConfig(process.env));
+    const running = await serveWithWorkers(readConfig(process.env));
     const stop = () => void running.close().then(() => process.exit(0));
     process.once('SIGINT', stop);
     process.once('SIGTERM', stop);
