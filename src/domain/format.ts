@@ -9,14 +9,18 @@ const LOCALE = 'en-US';
 /** How each area unit is written beside a number. */
 export const AREA_UNIT_LABEL: Record<AreaUnitCode, string> = { sqft: 'sq ft', m2: 'm²' };
 
+/** Money formats by currency and whole/cents, built once each (a page formats hundreds of prices). */
+const moneyFormats = new Map<string, Intl.NumberFormat>();
+
 export function formatMoney(amount: number, currency: string): string {
   const whole = Number.isInteger(amount);
-  return new Intl.NumberFormat(LOCALE, {
-    style: 'currency',
-    currency,
-    minimumFractionDigits: whole ? 0 : 2,
-    maximumFractionDigits: whole ? 0 : 2,
-  }).format(amount);
+  const key = `${currency}|${whole}`;
+  let f = moneyFormats.get(key);
+  if (!f) {
+    f = new Intl.NumberFormat(LOCALE, { style: 'currency', currency, minimumFractionDigits: whole ? 0 : 2, maximumFractionDigits: whole ? 0 : 2 });
+    moneyFormats.set(key, f);
+  }
+  return f.format(amount);
 }
 
 /** The symbol (or code) of a currency, for the label beside a price input. */

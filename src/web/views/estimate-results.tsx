@@ -21,11 +21,15 @@ export interface MoneyContext {
 export const money = (x: number, currency: string) => formatMoney(Math.round(x) || 0, currency);
 
 /** Four significant digits, grouped; large values to the unit. */
+// The formats toLocaleString would build on every call (Intl.NumberFormat is specified as its behaviour).
+const WHOLE = new Intl.NumberFormat('en-US');
+const UP_TO_12_DECIMALS = new Intl.NumberFormat('en-US', { maximumFractionDigits: 12 });
+
 export function formatStat(x: number | null | undefined, digits = 4): string {
   if (x === null || x === undefined || !Number.isFinite(x)) return '—';
-  if (Math.abs(x) >= 10 ** digits) return Math.round(x).toLocaleString('en-US');
+  if (Math.abs(x) >= 10 ** digits) return WHOLE.format(Math.round(x));
   if (x !== 0 && Math.abs(x) < 1e-4) return x.toExponential(digits - 1);
-  return Number(x.toPrecision(digits)).toLocaleString('en-US', { maximumFractionDigits: 12 });
+  return UP_TO_12_DECIMALS.format(Number(x.toPrecision(digits)));
 }
 
 export function formatP(p: number): string {
