@@ -3,9 +3,8 @@
  * serve, a write through either lands, a worker that dies is replaced while the other
  * keeps serving, and SIGTERM stops them all.
  */
-import { execFileSync } from 'node:child_process';
 import { get } from 'node:http';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -17,13 +16,21 @@ import { FormClient } from './form-client.js';
 let dir: string;
 let app: AppProcess;
 
-/** The worker processes of the app (its children running the server entry). */
+/** The worker processes of the app: its children running the server entry (read from /proc, Linux). */
 function workerPids(): number[] {
-  const out = execFileSync('ps', ['-o', 'pid=,args=', '--ppid', String(app.child.pid)], { encoding: 'utf8' });
-  return out
-    .split('\n')
-    .filter((line) => line.includes('server.ts'))
-    .map((line) => Number(line.trim().split(/\s+/)[0]));
+  const pids: number[] = [];
+  for (const entry of readdirSync('/proc')) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      // Field 4 of /proc/PID/stat is the parent's id; the name in field 2 may hold spaces, so split after its ')'.
+      const stat = readFileSync(`/proc/${entry}/stat`, 'utf8');
+      const parent = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      if (parent === app.child.pid && readFileSync(`/proc/${entry}/cmdline`, 'utf8').includes('server.ts')) pids.push(Number(entry));
+    } catch {
+      // The process ended while being read.
+    }
+  }
+  return pids;
 }
 
 /** GET on a new connection (a kept-alive one may belong to a worker that was killed). */
