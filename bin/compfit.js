@@ -1,10 +1,16 @@
 #!/usr/bin/env node
-// Entry for package.json "bin": runs the TypeScript command line through tsx.
-import { spawnSync } from 'node:child_process';
+// Entry for package.json "bin": runs the TypeScript command line through tsx, with the
+// project's tsconfig (so JSX compiles from any working folder), passing signals on.
+import { spawn } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import path from 'node:path';
-const here = path.dirname(fileURLToPath(import.meta.url));
-const main = path.join(here, '..', 'src', 'cli', 'bin.ts');
-const tsx = path.join(here, '..', 'node_modules', 'tsx', 'dist', 'cli.mjs');
-const r = spawnSync(process.execPath, [tsx, main, ...process.argv.slice(2)], { stdio: 'inherit' });
-process.exit(r.status ?? 1);
+
+const root = path.join(path.dirname(fileURLToPath(import.meta.url)), '..');
+const tsx = path.join(root, 'node_modules', 'tsx', 'dist', 'cli.mjs');
+const main = path.join(root, 'src', 'cli', 'bin.ts');
+const child = spawn(process.execPath, [tsx, '--tsconfig', path.join(root, 'tsconfig.json'), main, ...process.argv.slice(2)], { stdio: 'inherit' });
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) process.on(signal, () => child.kill(signal));
+child.on('exit', (code, signal) => {
+  if (signal) process.kill(process.pid, signal);
+  else process.exit(code ?? 1);
+});

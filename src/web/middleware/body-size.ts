@@ -43,5 +43,6 @@ export function bodySizeLimits(): MiddlewareHandler {
   // The same words as the import page's own check of the file's size.
   const upload = limited(UPLOAD_LIMIT_BYTES, `The file is larger than ${describe(MAX_CSV_BYTES)}; nothing was imported. Split it into smaller files.`);
   const form = limited(FORM_LIMIT_BYTES, `The request is larger than ${describe(FORM_LIMIT_BYTES)}; nothing was saved.`);
-  return (c, next) => (isUpload(c) ? upload(c, next) : form(c, next));
+  // GET and HEAD carry no body; touching c.req.raw.body would build a full Request for nothing.
+  return (c, next) => (c.req.method === 'GET' || c.req.method === 'HEAD' ? next() : isUpload(c) ? upload(c, next) : form(c, next));
 }
