@@ -64,7 +64,17 @@ export function adjustmentGrid(
  * which V8 allocates far faster than an object grown key by key. The keys are predictor
  * names from the fixed list in estimate-result.ts, quoted by JSON.stringify.
  */
+const factories = new Map<string, (amounts: Float64Array) => Record<string, number>>();
+
 function adjustmentsFactory(predictors: readonly Predictor[]): (amounts: Float64Array) => Record<string, number> {
+  // One compiled factory per predictor list, so V8 keeps its fast allocation site warm.
+  const key = predictors.join(',');
+  let factory = factories.get(key);
+  if (!factory) factories.set(key, (factory = compileFactory(predictors)));
+  return factory;
+}
+
+function compileFactory(predictors: readonly Predictor[]): (amounts: Float64Array) => Record<string, number> {
   const body = `return {${predictors.map((p, j) => `${JSON.stringify(p)}: a[${j}]`).join(', ')}};`;
   return new Function('a', body) as (amounts: Float64Array) => Record<string, number>;
 }
