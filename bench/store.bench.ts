@@ -8,6 +8,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { createApp } from '../src/app.js';
+import { testApp } from '../test/web/test-app.js';
 import type { Sale } from '../src/domain/sale.js';
 import { readSalesCsv, writeSalesCsv } from '../src/domain/sales-csv.js';
 import { closeDatabase, openDatabase, type Database } from '../src/store/database.js';
@@ -105,17 +106,16 @@ async function importBench(dir: string): Promise<void> {
   // The same file through the web app: upload and preview, then commit (which checks again).
   const webDb = await freshDatabase(dir, 'web-import.db');
   const webId = await market(webDb, 'Web import');
-  const app = createApp({ db: webDb });
-  const form = new FormData();
-  form.append('file', new File([text], 'bench.csv', { type: 'text/csv' }));
+  // The browser's flow, CSRF cookie and token included (the test app helper does exactly that).
+  const web = await testApp({ db: webDb });
   t0 = performance.now();
-  const preview = await app.request(`/markets/${webId}/import`, { method: 'POST', body: form });
+  const preview = await web.upload(`/markets/${webId}/import`, 'bench.csv', text);
   const html = await preview.text();
   const previewMs = performance.now() - t0;
   const commitUrl = /action="(\/markets\/\d+\/import\/\d+\/commit)"/.exec(html)?.[1];
   if (!commitUrl) throw new Error(`preview failed: ${preview.status}`);
   t0 = performance.now();
-  const commit = await app.request(commitUrl, { method: 'POST' });
+  const commit = await web.post(commitUrl, {});
   const commitMs = performance.now() - t0;
   if (commit.status !== 303) throw new Error(`commit failed: ${commit.status}`);
   console.log(`  web:   upload and preview ${previewMs.toFixed(0)} ms, commit ${commitMs.toFixed(0)} ms`);
