@@ -9,6 +9,7 @@ import type { ModelSpec } from '../domain/model.js';
 import type { Sale, Subject } from '../domain/sale.js';
 import type { MarketSnapshot, SavedEstimate } from '../domain/saved-estimate.js';
 import type { Database } from './database.js';
+import { toDomainSale } from './sale-columns.js';
 import { estimates, type EstimateRow } from './schema.js';
 
 export interface EstimateListItem {
@@ -22,21 +23,6 @@ export interface EstimateListItem {
   warningCount: number;
 }
 
-/** A sale as kept in a snapshot: the domain fields only, no database keys or times. */
-function plainSale(s: Sale): Sale {
-  return {
-    id: s.id,
-    address: s.address,
-    saleDate: s.saleDate,
-    salePrice: s.salePrice,
-    characteristics: { ...s.characteristics },
-    ...(s.notes !== undefined ? { notes: s.notes } : {}),
-    ...(s.verification !== undefined ? { verification: s.verification } : {}),
-    included: s.included,
-    ...(s.excludedReason !== undefined ? { excludedReason: s.excludedReason } : {}),
-  };
-}
-
 export async function saveEstimate(db: Database, snapshot: Omit<SavedEstimate, 'id'>): Promise<number> {
   const [row] = await db
     .insert(estimates)
@@ -48,7 +34,8 @@ export async function saveEstimate(db: Database, snapshot: Omit<SavedEstimate, '
       marketJson: JSON.stringify(snapshot.market),
       subjectJson: JSON.stringify(snapshot.subject),
       modelJson: JSON.stringify(snapshot.model),
-      salesJson: JSON.stringify(snapshot.sales.map(plainSale)),
+      // A sale as kept in a snapshot: the domain fields only, no database keys or times.
+      salesJson: JSON.stringify(snapshot.sales.map(toDomainSale)),
       resultJson: JSON.stringify(snapshot.result),
     })
     .returning({ id: estimates.id });

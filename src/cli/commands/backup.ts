@@ -10,7 +10,7 @@
 import { closeSync, existsSync, fsyncSync, openSync, realpathSync, renameSync, rmSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { createClient } from '@libsql/client';
-import { ConfigError, readConfig } from '../../server.js';
+import { cliConfig } from './store-access.js';
 import { DEFAULT_BUSY_TIMEOUT_MS, embeddedFilePath, isEmbeddedFileUrl } from '../../store/database.js';
 import { InputError, parseOptions, type Command } from '../cli-io.js';
 
@@ -41,13 +41,7 @@ async function checkCopy(file: string): Promise<{ integrity: string[]; markets: 
 export const backupCommand: Command = async (args, io) => {
   const { options, positional } = parseOptions(args, [], ['force']);
   if (positional.length !== 1) throw new InputError([positional.length === 0 ? `name the backup file: ${USAGE}` : `one backup file only: ${USAGE}`]);
-  let config;
-  try {
-    config = readConfig(io.env);
-  } catch (err) {
-    if (err instanceof ConfigError) throw new InputError([err.message]);
-    throw err;
-  }
+  const config = cliConfig(io);
   if (!isEmbeddedFileUrl(config.databaseUrl))
     throw new InputError([
       `backup copies an embedded database file, and DATABASE_URL points at a libSQL server (${config.databaseUrl.replace(/\/\/[^@/]*@/, '//')}). ` +

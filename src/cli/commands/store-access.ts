@@ -10,14 +10,18 @@ import { embeddedFilePath, isEmbeddedFileUrl } from '../../store/database.js';
 import { findMarketByName, listMarkets, type Market } from '../../store/markets-repo.js';
 import { InputError, type CliIo } from '../cli-io.js';
 
-export async function openCliDatabase(io: CliIo): Promise<Database> {
-  let config;
+/** The configuration from the environment; a bad setting is bad input (exit 2). */
+export function cliConfig(io: CliIo): ReturnType<typeof readConfig> {
   try {
-    config = readConfig(io.env);
+    return readConfig(io.env);
   } catch (err) {
     if (err instanceof ConfigError) throw new InputError([err.message]);
     throw err;
   }
+}
+
+export async function openCliDatabase(io: CliIo): Promise<Database> {
+  let config = cliConfig(io);
   const url = config.databaseUrl;
   if (isEmbeddedFileUrl(url) && !path.isAbsolute(embeddedFilePath(url)))
     config = { ...config, databaseUrl: `file:${path.resolve(io.cwd, embeddedFilePath(url))}` };
