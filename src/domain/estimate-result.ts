@@ -3,6 +3,8 @@
  * prints, what the JSON API returns and what a saved estimate freezes.
  */
 
+import type { RatioStudy } from '../stats/ratio-study.js';
+
 export type Transform = 'none' | 'log';
 
 /** Predictor names a model may use: characteristics, derived terms and the squared area. */
@@ -109,17 +111,10 @@ export interface SaleDiagnostics {
   flags: SaleFlag[];
 }
 
-export interface Validation {
+/** PRESS and the leave-one-out ratio study; `count` is the sales in it (those with hᵢᵢ < 1). */
+export interface Validation extends RatioStudy {
   press: number;
   predictedRSquared: number;
-  medianRatio: number;
-  meanRatio: number;
-  weightedMeanRatio: number;
-  cod: number;
-  prd: number;
-  prb: number;
-  /** Sales in the ratio study (those with hᵢᵢ < 1). */
-  count: number;
 }
 
 export interface ResidualTests {
