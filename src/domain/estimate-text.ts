@@ -27,10 +27,10 @@ export function estimateText(r: EstimateResult, subjectAddress: string): string 
   lines.push('  term                 estimate        std error       t        p       beta     VIF');
   for (const c of r.coefficients)
     lines.push(
-      `  ${c.term.padEnd(18)} ${num(c.estimate).padStart(12)} ${num(c.stdError).padStart(14)} ${num(c.t, 2).padStart(8)} ${num(c.p).padStart(8)} ${num(c.standardized, 3).padStart(8)} ${num(c.vif, 2).padStart(7)}`,
+      `  ${c.term.padEnd(18)} ${num(c.estimate).padStart(12)} ${num(c.stdError).padStart(14)} ${num(c.t, 2).padStart(8)} ${(c.p < 0.0001 ? '< 0.0001' : num(c.p)).padStart(8)} ${num(c.standardized, 3).padStart(8)} ${num(c.vif, 2).padStart(7)}`,
     );
   const f = r.fit;
-  lines.push(`  R² ${f.rSquared.toFixed(4)}, adjusted R² ${f.adjRSquared.toFixed(4)}, sigma ${num(f.sigma)}, F ${f.fStatistic.toFixed(2)} (p ${f.fPValue.toPrecision(3)}), df ${f.dfResidual}, condition number ${f.conditionNumber.toFixed(1)}`);
+  lines.push(`  R² ${f.rSquared.toFixed(4)}, adjusted R² ${f.adjRSquared.toFixed(4)}, sigma ${num(f.sigma)}, F ${f.fStatistic.toFixed(2)} (p ${f.fPValue < 0.0001 ? '< 0.0001' : f.fPValue.toPrecision(3)}), df ${f.dfResidual}, condition number ${f.conditionNumber.toFixed(1)}`);
   const v = r.validation;
   lines.push(`  leave-one-out: predicted R² ${v.predictedRSquared.toFixed(4)}, median ratio ${v.medianRatio.toFixed(3)}, COD ${v.cod.toFixed(1)}, PRD ${v.prd.toFixed(3)}, PRB ${v.prb.toFixed(3)}`);
   lines.push('');

@@ -16,6 +16,7 @@
 import { isLargeAdjustment, LARGE_GROSS_PERCENT, LARGE_NET_PERCENT } from './adjustment-grid.js';
 import type { EstimateResult, EstimateWarning, ModelFitSummary } from './estimate-result.js';
 import type { ConditionDiagnostics } from '../stats/condition-indices.js';
+import { predictorWords } from './model.js';
 
 /** A p value in words: tiny ones as an upper bound, not as 0. */
 const fmtP = (p: number) => (p < 0.0001 ? '< 0.0001' : `= ${p.toPrecision(2)}`);
@@ -47,7 +48,7 @@ export function subjectWarnings(r: EstimateResult): EstimateWarning[] {
         subjectValue: subject,
         min,
         max,
-        message: `The subject's ${predictor.replace(/_/g, ' ')} (${fmt(subject)}) is ${subject < min ? 'below the smallest' : 'above the largest'} among the sales used (${fmt(min)} to ${fmt(max)}). The estimate extrapolates beyond what the sales support.`,
+        message: `The subject's ${predictorWords(predictor)} (${fmt(subject)}) is ${subject < min ? 'below the smallest' : 'above the largest'} among the sales used (${fmt(min)} to ${fmt(max)}). The estimate extrapolates beyond what the sales support.`,
       });
     }
   }
@@ -93,8 +94,8 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
       predictor: c.term,
       vif: c.vif,
       message: expected
-        ? `${c.term} has VIF ${c.vif.toFixed(1)}, as expected for a squared term and its base; read the two coefficients together.`
-        : `${c.term} has VIF ${c.vif.toFixed(1)} (above ${c.vif > 10 ? 10 : 5}): it is strongly explained by the other predictors, so its coefficient and adjustment are unstable.`,
+        ? `${predictorWords(c.term)} has VIF ${c.vif.toFixed(1)}, as expected for a squared term and its base; read the two coefficients together.`
+        : `${predictorWords(c.term)} has VIF ${c.vif.toFixed(1)} (above ${c.vif > 10 ? 10 : 5}): it is strongly explained by the other predictors, so its coefficient and adjustment are unstable.`,
     });
   }
   const terms = ['(intercept)', ...r.predictors];
@@ -107,7 +108,7 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
         severity: onlySquare ? 'info' : 'caution',
         conditionIndex: index,
         terms: involved,
-        message: `Condition index ${index.toFixed(0)} (above 30) ties together ${involved.join(', ')}: these terms are nearly dependent among the sales used.`,
+        message: `Condition index ${index.toFixed(0)} (above 30) ties together ${involved.map(predictorWords).join(', ')}: these terms are nearly dependent among the sales used.`,
       });
     }
   });
@@ -146,7 +147,7 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
       count: influential.length,
       message:
         strong.length > 0
-          ? `Sale${strong.length > 1 ? 's' : ''} ${listIds(strong)} alone move${strong.length > 1 ? '' : 's'} the fit (Cook's distance above 1); ${influential.length} sale(s) in all exceed 4/n.`
+          ? `Sale${strong.length > 1 ? 's' : ''} ${listIds(strong)} alone move${strong.length > 1 ? '' : 's'} the fit (Cook's distance above 1); ${influential.length} sale${influential.length === 1 ? '' : 's'} in all exceed${influential.length === 1 ? 's' : ''} 4/n.`
           : `Sale${influential.length > 1 ? 's' : ''} ${listIds(influential)} have Cook's distance above 4/n = ${(4 / n).toFixed(3)}: the fit leans on them.`,
     });
   }

@@ -26,6 +26,11 @@ export const PREDICTOR_SOURCE: Record<Predictor, Characteristic | null> = {
   'living_area^2': 'living_area',
 };
 
+/** A predictor in plain words for messages and headings: "living area squared", "age". */
+export function predictorWords(predictor: string): string {
+  return predictor.replace('^2', ' squared').replace(/_/g, ' ');
+}
+
 /** Unit words for a coefficient: "per sq ft", "per year of age" … (area unit from the market). */
 export function perUnitLabel(predictor: Predictor, areaUnit: string): string {
   switch (predictor) {

@@ -50,11 +50,11 @@ describe('estimates in a browser', () => {
     await fillSubject(page, inside);
     await page.click('button:has-text("Estimate the subject")');
     await page.waitForSelector('.value-block');
-    const value = (await page.textContent('.value-block .value'))!.trim();
+    const value = (await page.textContent('.value-block .estimate-value'))!.trim();
     await page.click('button:has-text("Save this estimate")');
     await page.waitForSelector('h1:has-text("Saved estimate")');
     const savedUrl = page.url();
-    expect(await page.textContent('.value-block .value')).toBe(value);
+    expect(await page.textContent('.value-block .estimate-value')).toBe(value);
 
     // Edit the first sale in the table: triple its price.
     await page.goto(`${server.url}/markets/1`);
@@ -69,10 +69,10 @@ describe('estimates in a browser', () => {
     await fillSubject(page, inside);
     await page.click('button:has-text("Estimate the subject")');
     await page.waitForSelector('.value-block');
-    expect((await page.textContent('.value-block .value'))!.trim()).not.toBe(value);
+    expect((await page.textContent('.value-block .estimate-value'))!.trim()).not.toBe(value);
 
     await page.goto(savedUrl);
-    expect((await page.textContent('.value-block .value'))!.trim()).toBe(value);
+    expect((await page.textContent('.value-block .estimate-value'))!.trim()).toBe(value);
     expect(await page.textContent('body')).toContain('These are the numbers as saved');
   });
 });

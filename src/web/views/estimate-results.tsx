@@ -6,7 +6,7 @@
 import type { Chart, IntervalPicture } from '../../domain/estimate-charts.js';
 import type { EstimateResult, EstimateWarning, GridRow, ModelFitSummary, Predictor } from '../../domain/estimate-result.js';
 import { isLargeAdjustment } from '../../domain/adjustment-grid.js';
-import { perUnitLabel } from '../../domain/model.js';
+import { perUnitLabel, predictorWords } from '../../domain/model.js';
 import { CAUTION_TEXT, CAUTION_TITLE } from '../../domain/cautions.js';
 import { ChartSvg, IntervalSvg } from './charts.js';
 import { areaLabel, formatMoney } from './format.js';
@@ -68,7 +68,7 @@ export function ValueBlock(props: { result: EstimateResult; interval: IntervalPi
   return (
     <section class="value-block" aria-label="Estimate">
       <p class="value-label">Estimated value (statistical indication)</p>
-      <p class="value" data-value={e.value}>
+      <p class="estimate-value" data-value={e.value}>
         {fmt(e.value)}
       </p>
       <dl class="intervals">
@@ -254,7 +254,7 @@ export function AdjustmentGrid(props: { result: EstimateResult; rows: GridRow[];
               <th scope="col" class="num">Sale price</th>
               {r.predictors.map((p) => (
                 <th scope="col" class="num">
-                  {p}
+                  {predictorWords(p)}
                 </th>
               ))}
               <th scope="col" class="num">Adjusted price</th>
@@ -321,7 +321,9 @@ export function SalesDiagnostics(props: {
     <section class="diagnostics" aria-label="Sales diagnostics">
       <h2>Sales diagnostics</h2>
       <p class="lead">
-        {flagged.length} of {used.length} sales flagged (leverage above 2p/n, studentized residual beyond ±3, Cook's distance above 4/n). Flagged
+        {flagged.length} of {used.length} sales flagged (leverage above 2p/n, studentized residual beyond ±3, Cook's distance above 4/n). A flag
+        asks for a second look at the sale's record, not for its removal: exclude a sale only for a reason found in verifying it (it can be
+        included again from its page). Flagged
         sales come first{shownOthers.length < others.length ? `, then the ${shownOthers.length} others with the largest studentized residuals` : ''}.
         {props.limit && shownOthers.length < others.length ? (
           <>
@@ -368,18 +370,18 @@ export function SalesDiagnostics(props: {
                           <CsrfField />
                           <input type="hidden" name="sale" value={String(sale.key)} />
                           <input type="hidden" name="back" value={props.leaveOut.back} />
-                          <label class="visually-hidden" for={`reason-${sale.key}`}>
-                            Reason for leaving out {s.id}
+                          <label for={`reason-${sale.key}`} class="reason-label">
+                            Why exclude {s.id} from the market's sales?
                           </label>
                           <input
                             id={`reason-${sale.key}`}
                             name="excluded_reason"
                             required
                             maxlength={500}
-                            value={`flagged in regression: ${s.flags.join(', ')}`}
+                            placeholder="e.g. not arm's length, verified with the buyer"
                           />
                           <button type="submit" class="secondary">
-                            Leave out and refit
+                            Exclude from market and refit
                           </button>
                         </form>
                       ) : null}

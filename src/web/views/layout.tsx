@@ -18,6 +18,8 @@ export const HTMX_CONFIG = JSON.stringify({
   allowEval: false,
   allowScriptTags: false,
   selfRequestsOnly: true,
+  // htmx settles `style` by default, which writes inline styles our CSP forbids.
+  attributesToSettle: ['class', 'width', 'height'],
   responseHandling: [
     { code: '204', swap: false },
     { code: '[23]..', swap: true },
