@@ -82,7 +82,9 @@ export type WarningCode =
   | 'nonconstant-variance'
   | 'non-normal-residuals'
   | 'sales-left-out'
-  | 'large-adjustment';
+  | 'large-adjustment'
+  /** Extension: sales spread over more than a year and no market-conditions term in the model. */
+  | 'market-conditions';
 
 export interface EstimateWarning {
   code: WarningCode;

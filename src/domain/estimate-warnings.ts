@@ -12,6 +12,8 @@
  *   nonconstant-variance: Koenker–Breusch–Pagan p < 0.05; non-normal-residuals: Jarque–Bera
  *     p < 0.05, advisory below 30 sales (§8)
  *   large-adjustment: over 15 % net or 25 % gross (§10, a former guideline; a flag only)
+ *   market-conditions (an extension of the list): sales over more than 12 months and no
+ *     months_since_sale term (common practice)
  */
 import { isLargeAdjustment, LARGE_GROSS_PERCENT, LARGE_NET_PERCENT } from './adjustment-grid.js';
 import type { EstimateResult, EstimateWarning, ModelFitSummary } from './estimate-result.js';
@@ -78,7 +80,11 @@ export function subjectWarnings(r: EstimateResult): EstimateWarning[] {
 }
 
 /** Warnings about the model and the sales, whatever the subject. */
-export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnostics): EstimateWarning[] {
+export function modelWarnings(
+  r: ModelFitSummary,
+  conditioning: ConditionDiagnostics,
+  saleDates?: { first: string; last: string },
+): EstimateWarning[] {
   const w: EstimateWarning[] = [];
   const n = r.n;
   const p = r.predictors.length + 1;
@@ -179,6 +185,21 @@ export function modelWarnings(r: ModelFitSummary, conditioning: ConditionDiagnos
       p: jb.p,
       message: `Residuals do not look normal (Jarque–Bera ${jb.statistic.toFixed(2)}, p ${fmtP(jb.p)})${n < 30 ? '; with so few sales this test is only advisory' : ''}: the prediction interval's coverage is approximate.`,
     });
+
+  // Prices move with the market; over more than a year an unadjusted model mixes price levels
+  // (market conditions are an element of comparison: TRADE-FACTS.md §10).
+  if (saleDates && !r.predictors.includes('months_since_sale')) {
+    const months = (Date.parse(saleDates.last) - Date.parse(saleDates.first)) / 86_400_000 / 30.4375;
+    if (months > 12)
+      w.push({
+        code: 'market-conditions',
+        severity: 'caution',
+        firstSale: saleDates.first,
+        lastSale: saleDates.last,
+        months,
+        message: `The sales used span ${Math.round(months)} months (${saleDates.first} to ${saleDates.last}) but the model has no market-conditions term: add months since sale, or check that prices did not move over that time.`,
+      });
+  }
 
   const leftOut = r.sales.filter((s) => !s.used);
   if (leftOut.length > 0)

@@ -246,7 +246,13 @@ export function fitModel(sales: readonly Sale[], model: ModelSpec, effectiveDate
     residualTests: { breuschPagan: breuschPaganKoenker(ls), jarqueBera: jarqueBera(ls.residuals) },
     ranges,
   };
-  summary.warnings = modelWarnings(summary, conditioning);
+  let first = used[0].saleDate;
+  let last = first;
+  for (const u of used) {
+    if (u.saleDate < first) first = u.saleDate;
+    else if (u.saleDate > last) last = u.saleDate;
+  }
+  summary.warnings = modelWarnings(summary, conditioning, { first, last });
   return {
     summary,
     effectiveDate,

@@ -177,3 +177,19 @@ describe('estimateCharts', async () => {
     expect(interval.prediction).toEqual(r.estimate.prediction);
   });
 });
+
+describe('market-conditions note', () => {
+  it('cautions when the sales span more than a year and months_since_sale is not in the model', () => {
+    const sales = syntheticSales(30, 21).map((s, i) => ({ ...s, saleDate: i % 2 ? '2022-03-15' : '2023-09-15' }));
+    const subject = makeSubject({ living_area: 1800, year_built: 1990, rooms: 6 }, '2023-12-01');
+    const r = runEstimate(sales, subject, DEFAULT_MODEL);
+    const w = r.warnings.find((x) => x.code === 'market-conditions');
+    expect(w).toMatchObject({ severity: 'caution', firstSale: '2022-03-15', lastSale: '2023-09-15' });
+    expect(w!.message).toMatch(/span 18 months/);
+    const withTime = validateModel({ predictors: ['living_area', 'age', 'rooms', 'months_since_sale'] });
+    if (!withTime.ok) throw new Error('model');
+    expect(runEstimate(sales, subject, withTime.value).warnings.some((x) => x.code === 'market-conditions')).toBe(false);
+    const recent = sales.map((s) => ({ ...s, saleDate: '2023-09-15' }));
+    expect(runEstimate(recent, subject, DEFAULT_MODEL).warnings.some((x) => x.code === 'market-conditions')).toBe(false);
+  });
+});
