@@ -344,7 +344,7 @@ export function SalesDiagnostics(props: {
               <th scope="col" class="num">Leverage</th>
               <th scope="col" class="num">Cook's D</th>
               <th scope="col">Flags</th>
-              {props.leaveOut ? <th scope="col">Leave out</th> : null}
+              {props.leaveOut ? <th scope="col">Exclude, with a reason</th> : null}
             </tr>
           </thead>
           <tbody>
