@@ -66,7 +66,8 @@ export function checkCharacteristic(
 ): { value: number } | { error: string } {
   const rule = CHARACTERISTIC_RULES[name];
   const n = parsePlainNumber(text);
-  if (n === undefined) return { error: `${name} must be a plain number, got "${text}"` };
+  if (n === undefined)
+    return { error: `${name} must be a plain number${/\d,\d/.test(text) ? ' without thousands separators' : ''}, got "${text}"` };
   if (rule.integer && !Number.isInteger(n)) return { error: `${name} must be a whole number, got "${text}"` };
   if (rule.minInclusive ? n < rule.min : n <= rule.min)
     return { error: `${name} must be ${rule.minInclusive ? 'at least' : 'greater than'} ${rule.min}, got "${text}"` };

@@ -118,7 +118,7 @@ export function SaleFormPage(p: SaleFormProps) {
   const title = p.sale ? `Edit sale ${p.sale.id}` : 'Add a sale';
   return (
     <Layout title={`${title} · ${p.market.name}`}>
-      <MarketHeader market={p.market} current={p.sale ? undefined : 'add'} />
+      <MarketHeader market={p.market} current={p.sale ? 'sales' : 'add'} />
       <h2>{title}</h2>
       <SaleForm {...p} />
     </Layout>

@@ -80,7 +80,7 @@ export function SalePage(props: { market: Market; sale: StoredSale; changes: Sal
   const { market, sale } = props;
   return (
     <Layout title={`Sale ${sale.id} · ${market.name}`}>
-      <MarketHeader market={market} />
+      <MarketHeader market={market} current="sales" />
       <h2>
         Sale {sale.id}: {sale.address}
       </h2>
@@ -133,7 +133,7 @@ export function ExcludeSalePage(props: { market: Market; sale: StoredSale; reaso
   const url = saleUrl(market, sale, '/exclude');
   return (
     <Layout title={`Exclude sale ${sale.id} · ${market.name}`}>
-      <MarketHeader market={market} />
+      <MarketHeader market={market} current="sales" />
       <h2>Exclude sale {sale.id}</h2>
       <p>
         {sale.address}, sold {sale.saleDate} for {formatMoney(sale.salePrice, market.currency)}. An excluded sale stays in the market but is left
@@ -165,7 +165,7 @@ export function DeleteSalePage(props: { market: Market; sale: StoredSale }) {
   const { market, sale } = props;
   return (
     <Layout title={`Delete sale ${sale.id} · ${market.name}`}>
-      <MarketHeader market={market} />
+      <MarketHeader market={market} current="sales" />
       <h2>Delete sale {sale.id}?</h2>
       <p>
         {sale.address}, sold {sale.saleDate} for {formatMoney(sale.salePrice, market.currency)}. You can undo the delete from the sales page
