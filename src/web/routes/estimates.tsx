@@ -50,6 +50,7 @@ export function marketEstimateRoutes(deps: { db: Database }) {
       charts: run.result && input.subject ? estimateCharts(run.result, run.sales, input.subject, areaLabel(market.areaUnit)) : undefined,
       problems: [...input.modelErrors, ...run.problems],
       sales,
+      saleRecords: new Map(run.sales.map((s) => [s.id, s])),
       query: estimateQuery(input.model, input.subjectFields, input.gridSize),
     };
     const status = input.modelErrors.length > 0 || (input.wantsEstimate && !subjectOk) || input.subjectErrors.effective_date ? 422 : 200;

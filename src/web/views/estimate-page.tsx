@@ -6,7 +6,7 @@
  */
 import type { EstimateCharts } from './estimate-view-model.js';
 import type { EstimateResult, ModelFitSummary } from '../../domain/estimate-result.js';
-import { CHARACTERISTICS, CHARACTERISTIC_RULES } from '../../domain/sale.js';
+import { CHARACTERISTICS, CHARACTERISTIC_RULES, type Sale } from '../../domain/sale.js';
 import type { Market } from '../../store/markets-repo.js';
 import { LEVELS, PREDICTOR_CHOICES, type EstimateInput } from '../routes/estimate-input.js';
 import { Field } from './field.js';
@@ -34,6 +34,8 @@ export interface EstimateWorkProps {
   /** A model that gives no number: what is wrong and what to do. */
   problems: string[];
   sales: Map<string, DiagnosticsRow>;
+  /** The sales the estimate was computed from, by id (for the grid's values). */
+  saleRecords: Map<string, Sale>;
   query: string;
 }
 
@@ -185,14 +187,15 @@ export function EstimateWork(props: EstimateWorkProps) {
           </>
         ) : null}
         {fit ? <FitSummary fit={result ?? fit} ctx={ctx} /> : null}
-        {result && charts ? (
+        {result && charts && input.subject ? (
           <>
             <Pictures charts={charts.charts} />
             <AdjustmentGrid
               result={result}
               rows={result.grid.slice(0, input.gridSize)}
               ctx={ctx}
-              addresses={new Map([...props.sales.values()].map((s) => [s.id, s.address]))}
+              sales={props.saleRecords}
+              subject={input.subject!}
             />
           </>
         ) : null}

@@ -6,7 +6,8 @@
 import type { Chart, IntervalPicture } from '../../domain/estimate-charts.js';
 import type { EstimateResult, EstimateWarning, GridRow, ModelFitSummary, Predictor } from '../../domain/estimate-result.js';
 import { isLargeAdjustment } from '../../domain/adjustment-grid.js';
-import { perUnitLabel, predictorWords } from '../../domain/model.js';
+import { perUnitLabel, predictorWords, saleValue } from '../../domain/model.js';
+import type { Sale, Subject } from '../../domain/sale.js';
 import { CAUTION_TEXT, CAUTION_TITLE } from '../../domain/cautions.js';
 import { ChartSvg, IntervalSvg } from './charts.js';
 import { areaLabel, formatMoney } from './format.js';
@@ -229,9 +230,17 @@ export function Pictures(props: { charts: Chart[] }) {
   );
 }
 
-export function AdjustmentGrid(props: { result: EstimateResult; rows: GridRow[]; ctx: MoneyContext; addresses: Map<string, string> }) {
-  const { result: r, rows, ctx } = props;
+export function AdjustmentGrid(props: {
+  result: EstimateResult;
+  rows: GridRow[];
+  ctx: MoneyContext;
+  /** The sales the estimate was computed from, by id: each cell shows the sale's value above its adjustment. */
+  sales: Map<string, Sale>;
+  subject: Subject;
+}) {
+  const { result: r, rows, ctx, subject } = props;
   const fmt = (x: number) => money(x, ctx.currency);
+  const value = (p: Predictor, v: number | undefined) => (v === undefined ? '' : formatStat(p === 'months_since_sale' ? Math.round(v * 10) / 10 : v, 6));
   const adjusted = rows.map((g) => g.adjustedPrice);
   const lo = Math.min(...adjusted);
   const hi = Math.max(...adjusted);
@@ -251,10 +260,12 @@ export function AdjustmentGrid(props: { result: EstimateResult; rows: GridRow[];
           <thead>
             <tr>
               <th scope="col">Sale</th>
+              <th scope="col">Sale date</th>
               <th scope="col" class="num">Sale price</th>
               {r.predictors.map((p) => (
                 <th scope="col" class="num">
                   {predictorWords(p)}
+                  <span class="sub">value · adjustment</span>
                 </th>
               ))}
               <th scope="col" class="num">Adjusted price</th>
@@ -263,16 +274,39 @@ export function AdjustmentGrid(props: { result: EstimateResult; rows: GridRow[];
             </tr>
           </thead>
           <tbody>
+            <tr class="subject-row">
+              <th scope="row">
+                Subject
+                <span class="sub">{subject.address}</span>
+              </th>
+              <td>{subject.effectiveDate}</td>
+              <td class="num"></td>
+              {r.predictors.map((p) => (
+                <td class="num">{value(p, r.estimate.predictorValues[p])}</td>
+              ))}
+              <td class="num">
+                <strong>{fmt(r.estimate.value)}</strong>
+              </td>
+              <td class="num"></td>
+              <td class="num"></td>
+            </tr>
             {rows.map((g) => (
               <tr class={isLargeAdjustment(g) ? 'large' : ''}>
                 <th scope="row">
                   {g.id}
-                  <span class="sub">{props.addresses.get(g.id) ?? ''}</span>
+                  <span class="sub">{props.sales.get(g.id)?.address ?? ''}</span>
                 </th>
+                <td>{props.sales.get(g.id)?.saleDate ?? ''}</td>
                 <td class="num">{fmt(g.salePrice)}</td>
-                {r.predictors.map((p) => (
-                  <td class="num">{fmt(g.adjustments[p])}</td>
-                ))}
+                {r.predictors.map((p) => {
+                  const sale = props.sales.get(g.id);
+                  return (
+                    <td class="num">
+                      {sale ? value(p, saleValue(p, sale, subject.effectiveDate)) : ''}
+                      <span class="sub">{fmt(g.adjustments[p])}</span>
+                    </td>
+                  );
+                })}
                 <td class="num">
                   <strong>{fmt(g.adjustedPrice)}</strong>
                 </td>

@@ -68,7 +68,7 @@ export function SavedEstimatePage(props: { saved: SavedEstimate; charts: Estimat
       <EstimateCaution />
       <FitSummary fit={r} ctx={ctx} />
       <Pictures charts={charts.charts} />
-      <AdjustmentGrid result={r} rows={r.grid.slice(0, props.gridSize)} ctx={ctx} addresses={new Map(saved.sales.map((s) => [s.id, s.address]))} />
+      <AdjustmentGrid result={r} rows={r.grid.slice(0, props.gridSize)} ctx={ctx} sales={new Map(saved.sales.map((s) => [s.id, s]))} subject={saved.subject} />
       <SalesDiagnostics result={r} sales={rows} ctx={ctx} />
     </Layout>
   );
